@@ -1,0 +1,33 @@
+// @ts-check
+import { defineConfig } from 'astro/config';
+import node from '@astrojs/node';
+import react from '@astrojs/react';
+import tailwindcss from '@tailwindcss/vite';
+
+const port = Number(process.env.PORT ?? 4321);
+
+export default defineConfig({
+  output: 'server',
+  adapter: node({ mode: 'standalone' }),
+  integrations: [react()],
+  server: { host: process.env.HOST ?? 'localhost', port },
+  // The Node adapter ignores the Host header unless it is listed here; without it every form POST
+  // fails the origin check. A hostname-only entry accepts any port.
+  security: {
+    checkOrigin: true,
+    allowedDomains: [{ hostname: 'localhost' }, { hostname: '127.0.0.1' }, ...extraDomains()],
+  },
+  vite: {
+    plugins: [tailwindcss()],
+    ssr: { external: ['better-sqlite3', '@node-rs/argon2'] },
+  },
+});
+
+/** Further host names from QUADRILLE_ALLOWED_HOSTS (comma separated), for deployments behind a name. */
+function extraDomains() {
+  return (process.env.QUADRILLE_ALLOWED_HOSTS ?? '')
+    .split(',')
+    .map((h) => h.trim())
+    .filter(Boolean)
+    .map((hostname) => ({ hostname }));
+}
