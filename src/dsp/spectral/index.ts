@@ -1,0 +1,11 @@
+export { WelchAccumulator, resolveWindow } from './welch';
+export type { WelchOptions } from './welch';
+export { SpectrogramAccumulator } from './spectrogram';
+export type { SpectrogramOptions } from './spectrogram';
+export { MinMaxTraceReducer, reduceMinMax, reduceSpectrumMax } from './trace-reducer';
+export type { TraceReducerOptions } from './trace-reducer';
+export { SegmentPeriodogram, hopSize } from './periodogram';
+export type { SpectralSampleType } from './periodogram';
+export { powerToDb, levelUnit, interpolatedPeak, LEVEL_FLOOR_DB } from './levels';
+export type { SpectralScaling } from './levels';
+export { spectralFrequencies, toDisplayOrder } from './axis';

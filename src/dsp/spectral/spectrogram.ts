@@ -1,0 +1,154 @@
+/**
+ * Streaming spectrogram with a bounded image: at most `maxRows` time rows and fftSize (complex) or
+ * fftSize/2 + 1 (real) frequency columns, however long the stream.
+ *
+ * Row merging needs no knowledge of the stream length: each row starts as the power of one segment.
+ * Whenever the rows fill up to maxRows, neighbouring rows are merged in pairs (power averaged,
+ * weighted by the segments each holds) and from then on each row collects twice as many segments.
+ * So every finished row averages the same number of consecutive segments (a power of two), only the
+ * last row may hold fewer, and the result does not depend on how the stream was split into blocks.
+ * Levels use the same scaling as scipy.signal.spectrogram (mode 'psd', detrend=False).
+ */
+import type { SpectrogramResult } from '../types';
+import type { WindowName } from '../windows/window-function';
+import { hopSize, SegmentPeriodogram, type SpectralSampleType } from './periodogram';
+import { levelUnit, powerToDb, type SpectralScaling } from './levels';
+import { assertSampleRate, spectralFrequencies, toDisplayOrder } from './axis';
+import { resolveWindow } from './welch';
+
+/** Options of a spectrogram. */
+export interface SpectrogramOptions {
+  /** Samples per second (Hz). */
+  sampleRate: number;
+  sampleType: SpectralSampleType;
+  /** Segment length and DFT size (samples, power of two >= 2). */
+  fftSize: number;
+  window?: WindowName | Float64Array;
+  beta?: number;
+  /** Fraction of a segment shared with the next (0 to below 1). Default 0.5. */
+  overlap?: number;
+  /** Most time rows kept (>= 2). Default 256. */
+  maxRows?: number;
+  scaling?: SpectralScaling;
+}
+
+interface Row {
+  power: Float64Array;
+  /** Segments summed into `power`. */
+  count: number;
+  /** Index of the first segment of the row. */
+  firstSegment: number;
+}
+
+export class SpectrogramAccumulator {
+  readonly sampleRate: number;
+  readonly sampleType: SpectralSampleType;
+  readonly fftSize: number;
+  readonly maxRows: number;
+  readonly scaling: SpectralScaling;
+  private readonly window: Float64Array;
+  private readonly periodogram: SegmentPeriodogram;
+  private readonly rows: Row[] = [];
+  private current: Row | null = null;
+  /** Segments each full row collects (doubles at every merge). */
+  private segmentsPerRow = 1;
+  private readonly spare: Float64Array[] = [];
+  private readonly addSegment: (power: Float64Array) => void;
+
+  constructor(options: SpectrogramOptions) {
+    assertSampleRate(options.sampleRate);
+    const maxRows = options.maxRows ?? 256;
+    if (!Number.isInteger(maxRows) || maxRows < 2) throw new RangeError(`maxRows: must be an integer >= 2, got ${maxRows}`);
+    this.sampleRate = options.sampleRate;
+    this.sampleType = options.sampleType;
+    this.fftSize = options.fftSize;
+    this.maxRows = maxRows;
+    this.scaling = options.scaling ?? 'density';
+    if (this.scaling !== 'density' && this.scaling !== 'spectrum') throw new RangeError(`scaling: must be "density" or "spectrum", got "${String(this.scaling)}"`);
+    this.window = resolveWindow(options.window, options.fftSize, options.beta);
+    this.periodogram = new SegmentPeriodogram(options.sampleType, this.window, hopSize(options.fftSize, options.overlap ?? 0.5));
+    this.addSegment = (power) => this.add(power);
+  }
+
+  /** Consume a block (interleaved I/Q for complex); segments may straddle blocks. */
+  push(block: Float32Array): void {
+    this.periodogram.push(block, this.addSegment);
+  }
+
+  /** Segments seen so far. */
+  get segments(): number {
+    return this.periodogram.segments;
+  }
+
+  /** Segments averaged into each full row (a power of two). */
+  get rowSegments(): number {
+    return this.segmentsPerRow;
+  }
+
+  private add(power: Float64Array): void {
+    const segmentIndex = this.periodogram.segments - 1;
+    if (!this.current) {
+      const buffer = this.spare.pop() ?? new Float64Array(power.length);
+      buffer.set(power);
+      this.current = { power: buffer, count: 1, firstSegment: segmentIndex };
+    } else {
+      const acc = this.current.power;
+      for (let k = 0; k < acc.length; k++) acc[k] += power[k];
+      this.current.count++;
+    }
+    if (this.current.count < this.segmentsPerRow) return;
+    this.rows.push(this.current);
+    this.current = null;
+    if (this.rows.length === this.maxRows) this.mergePairs();
+  }
+
+  private mergePairs(): void {
+    const merged: Row[] = [];
+    for (let r = 0; r + 1 < this.rows.length; r += 2) {
+      const a = this.rows[r];
+      const b = this.rows[r + 1];
+      for (let k = 0; k < a.power.length; k++) a.power[k] += b.power[k];
+      a.count += b.count;
+      this.spare.push(b.power);
+      merged.push(a);
+    }
+    this.segmentsPerRow *= 2;
+    // An odd row out keeps collecting segments as the row in progress.
+    if (this.rows.length % 2 === 1) this.current = this.rows[this.rows.length - 1];
+    this.rows.length = 0;
+    this.rows.push(...merged);
+  }
+
+  /** The image: rows of levels in dB (row = time, column = frequency in display order). */
+  result(calibrationDb = 0): SpectrogramResult {
+    if (!Number.isFinite(calibrationDb)) throw new RangeError(`calibrationDb: must be a finite number of dB, got ${calibrationDb}`);
+    const all = this.current ? [...this.rows, this.current] : this.rows;
+    let s = 0;
+    let s2 = 0;
+    for (let k = 0; k < this.window.length; k++) {
+      s += this.window[k];
+      s2 += this.window[k] * this.window[k];
+    }
+    const baseScale = this.scaling === 'density' ? 1 / (this.sampleRate * s2) : 1 / (s * s);
+    const display = new Float64Array(this.periodogram.bins);
+    const levels: number[][] = [];
+    const times: number[] = [];
+    for (const row of all) {
+      toDisplayOrder(row.power, this.sampleType, this.fftSize, display);
+      const scale = baseScale / row.count;
+      const line = new Array<number>(display.length);
+      for (let k = 0; k < display.length; k++) {
+        const doubled = this.sampleType === 'real' && k > 0 && k < display.length - 1 ? 2 : 1;
+        line[k] = powerToDb(display[k] * scale * doubled, calibrationDb);
+      }
+      levels.push(line);
+      times.push((row.firstSegment * this.periodogram.hop) / this.sampleRate);
+    }
+    return {
+      times,
+      frequencies: Array.from(spectralFrequencies(this.sampleType, this.fftSize, this.sampleRate)),
+      levels,
+      unit: levelUnit(this.scaling, calibrationDb),
+    };
+  }
+}
