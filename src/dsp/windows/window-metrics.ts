@@ -46,7 +46,8 @@ export function scallopingLossDb(w: ArrayLike<number>): number {
 
 /**
  * Highest side lobe in dB relative to the main lobe peak (negative), from a zero-padded DFT
- * `oversample` times the window length: the main lobe ends at the first local minimum.
+ * `oversample` times the window length. The main lobe ends at the first local minimum below
+ * -6 dB, so a flat top's ripple near the centre is not taken for a null.
  */
 export function highestSideLobeDb(w: ArrayLike<number>, oversample = 64): number {
   checkWindow(w);
@@ -60,7 +61,7 @@ export function highestSideLobeDb(w: ArrayLike<number>, oversample = 64): number
   const mag = new Float64Array(half + 1);
   for (let k = 0; k <= half; k++) mag[k] = Math.hypot(out[2 * k], out[2 * k + 1]);
   let k = 1;
-  while (k < half && mag[k + 1] < mag[k]) k++;
+  while (k < half && (mag[k] > 0.5 * mag[0] || mag[k + 1] < mag[k])) k++;
   let highest = 0;
   for (; k <= half; k++) highest = Math.max(highest, mag[k]);
   return 20 * Math.log10(highest / mag[0]);
