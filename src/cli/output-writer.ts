@@ -1,0 +1,116 @@
+/**
+ * Writes a run's results into the output directory without ever leaving a half-written set:
+ * everything goes to temporary names first and is renamed into place only when the run has
+ * succeeded; `abort()` removes the temporary files (and the directory if this run created it).
+ */
+import { createHash, type Hash } from 'node:crypto';
+import { closeSync, existsSync, fsyncSync, mkdirSync, openSync, readdirSync, renameSync, rmdirSync, unlinkSync, writeFileSync, writeSync } from 'node:fs';
+import { join } from 'node:path';
+import { SampleEncoder, formatSigmfMeta, sigmfShapeOfLayout, type SigmfMeta } from '../dsp/formats/index';
+import type { StreamFormat } from '../dsp/types';
+import { InputError } from './errors';
+
+/** The final names inside the output directory. */
+export const OUTPUT_FILES = { results: 'results.json', meta: 'output.sigmf-meta', data: 'output.sigmf-data' } as const;
+
+/** Streams the chain's output samples to a temporary SigMF data file, then commits all files. */
+export class RunOutput {
+  readonly dir: string;
+  private readonly createdDir: boolean;
+  private readonly temps: Record<keyof typeof OUTPUT_FILES, string>;
+  private dataFd: number | null = null;
+  private encoder: SampleEncoder | null = null;
+  private format: StreamFormat | null = null;
+  private hash: Hash = createHash('sha512');
+  private position = 0;
+
+  constructor(dir: string) {
+    this.dir = dir;
+    this.createdDir = !existsSync(dir);
+    try {
+      mkdirSync(dir, { recursive: true });
+    } catch (error) {
+      throw new InputError(`--out: cannot create ${dir}: ${(error as Error).message}`);
+    }
+    const tag = `.tmp-${process.pid}-${Date.now().toString(36)}`;
+    this.temps = {
+      results: join(dir, `.${OUTPUT_FILES.results}${tag}`),
+      meta: join(dir, `.${OUTPUT_FILES.meta}${tag}`),
+      data: join(dir, `.${OUTPUT_FILES.data}${tag}`),
+    };
+    this.dataFd = openSync(this.temps.data, 'w');
+  }
+
+  /** Datatype written for an output format: cf32_le for complex, rf32_le for real and real-pair. */
+  static datatypeFor(format: StreamFormat): string {
+    return format.sampleType === 'complex' ? 'cf32_le' : 'rf32_le';
+  }
+
+  /** Append one block of output samples (layout of `format`). */
+  write(block: Float32Array, format: StreamFormat): void {
+    if (!this.encoder) {
+      this.format = format;
+      this.encoder = new SampleEncoder({ kind: 'f', bits: 32, littleEndian: true }, format.sampleType, { zeroCopy: true });
+    }
+    const bytes = this.encoder.encode(block);
+    this.hash.update(bytes);
+    let done = 0;
+    while (done < bytes.length) {
+      done += writeSync(this.dataFd!, bytes, done, bytes.length - done, this.position + done);
+    }
+    this.position += bytes.length;
+  }
+
+  /** Samples written so far. */
+  get samplesWritten(): number {
+    return this.encoder?.samplesEncoded ?? 0;
+  }
+
+  /** Write the metadata and results and move all three files into place. */
+  commit(finalFormat: StreamFormat, meta: Omit<SigmfMeta['global'], 'datatype' | 'version' | 'sampleRate' | 'numChannels' | 'sha512'>, results: unknown): void {
+    const format = this.format ?? finalFormat;
+    closeSync(this.dataFd!);
+    this.dataFd = null;
+    const shape = sigmfShapeOfLayout(format.sampleType);
+    const sigmf: SigmfMeta = {
+      global: {
+        datatype: RunOutput.datatypeFor(format),
+        version: '1.2.0',
+        sampleRate: format.sampleRate,
+        numChannels: shape.numChannels,
+        sha512: this.hash.digest('hex'),
+        ...meta,
+      },
+      captures: [format.centerFrequency !== undefined ? { sampleStart: 0, frequency: format.centerFrequency } : { sampleStart: 0 }],
+      annotations: [],
+    };
+    writeFileSync(this.temps.meta, formatSigmfMeta(sigmf));
+    const fd = openSync(this.temps.results, 'w');
+    writeSync(fd, `${JSON.stringify(results, jsonNumbers, 2)}\n`);
+    fsyncSync(fd);
+    closeSync(fd);
+    // results.json last: its presence means the run finished.
+    renameSync(this.temps.data, join(this.dir, OUTPUT_FILES.data));
+    renameSync(this.temps.meta, join(this.dir, OUTPUT_FILES.meta));
+    renameSync(this.temps.results, join(this.dir, OUTPUT_FILES.results));
+  }
+
+  /** Remove every temporary file (and the directory when this run created it and it is empty). */
+  abort(): void {
+    if (this.dataFd !== null) {
+      try { closeSync(this.dataFd); } catch { /* already closed */ }
+      this.dataFd = null;
+    }
+    for (const path of Object.values(this.temps)) {
+      try { unlinkSync(path); } catch { /* never created */ }
+    }
+    if (this.createdDir) {
+      try { if (readdirSync(this.dir).length === 0) rmdirSync(this.dir); } catch { /* leave it */ }
+    }
+  }
+}
+
+/** JSON has no NaN or Infinity: write them as null (a level of -Infinity dB reads as "no power"). */
+function jsonNumbers(_key: string, value: unknown): unknown {
+  return typeof value === 'number' && !Number.isFinite(value) ? null : value;
+}
