@@ -146,7 +146,6 @@ export const pageActions: Record<string, Action | Audience> = {
   '/chains': 'chain.read',
   '/runs': 'run.read',
   '/admin': 'admin.view',
-  '/admin/users': 'user.list',
 };
 
 /** The action of an API request, or undefined when the route or method is not in the table. */
