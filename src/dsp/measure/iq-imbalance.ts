@@ -21,8 +21,7 @@ export interface IqImbalanceEstimate {
 
 /**
  * Blind estimate of gain ratio, phase error (rad) and DC offsets from interleaved I/Q samples.
- * When either channel carries no power after mean removal nothing can be estimated and the neutral
- * values (gainRatio 1, phaseRad 0) are returned with the means.
+ * A channel without power after mean removal gives the neutral values (gainRatio 1, phaseRad 0).
  */
 export function estimateIqImbalance(iq: Float32Array): {
   gainRatio: number;
@@ -54,10 +53,19 @@ export function estimateIqImbalance(iq: Float32Array): {
     qq += q * q;
     iqSum += i * q;
   }
-  if (!(ii > 0) || !(qq > 0) || !Number.isFinite(ii + qq + iqSum)) {
+  return imbalanceFromMoments(ii / n, qq / n, iqSum / n, dcI, dcQ);
+}
+
+/**
+ * Gain ratio and phase error from centred second moments <I^2>, <Q^2>, <IQ> and the means.
+ * When either channel carries no power nothing can be estimated: the neutral values (gainRatio 1,
+ * phaseRad 0) are returned with the means.
+ */
+export function imbalanceFromMoments(ii: number, qq: number, iq: number, dcI: number, dcQ: number): IqImbalanceEstimate {
+  if (!(ii > 0) || !(qq > 0) || !Number.isFinite(ii + qq + iq)) {
     return { gainRatio: 1, phaseRad: 0, dcI, dcQ };
   }
   const gainRatio = Math.sqrt(ii / qq);
-  const sinPhase = Math.min(1, Math.max(-1, iqSum / Math.sqrt(ii * qq)));
+  const sinPhase = Math.min(1, Math.max(-1, iq / Math.sqrt(ii * qq)));
   return { gainRatio, phaseRad: Math.asin(sinPhase), dcI, dcQ };
 }

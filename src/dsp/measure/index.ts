@@ -1,0 +1,12 @@
+export { estimateIqImbalance, imbalanceFromMoments } from './iq-imbalance';
+export type { IqImbalanceEstimate } from './iq-imbalance';
+export { imageRejectionDb } from './image-rejection';
+export { SampleMoments, dcLevelDbfs } from './sample-moments';
+export { createMeasuringWelch, measuredSpectrum, measureSpectrumOf, binOfFrequency } from './measured-spectrum';
+export type { MeasuredSpectrum, MeasureSpectrumOptions } from './measured-spectrum';
+export { findTone, lobePower } from './tone';
+export type { ToneReading } from './tone';
+export { dynamicRange } from './dynamic-range';
+export type { DynamicRange, DynamicRangeOptions } from './dynamic-range';
+export { channelPower, occupiedBandwidth } from './band';
+export type { OccupiedBandwidth } from './band';
