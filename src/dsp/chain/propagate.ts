@@ -57,10 +57,11 @@ function withStage(issue: ChainIssue, label: string, stageId: string): ChainIssu
 function chainChecks(params: Record<string, unknown>, input: StreamFormat, output: StreamFormat, reported: ChainIssue[]): ChainIssue[] {
   const issues: ChainIssue[] = [];
   const reportedFields = new Set(reported.map((i) => i.field));
+  const reportedCodes = new Set(reported.map((i) => i.code));
   const nyquist = input.sampleRate / 2;
   for (const field of EDGE_FIELDS) {
     const edge = params[field];
-    if (typeof edge !== 'number' || reportedFields.has(field)) continue;
+    if (typeof edge !== 'number' || reportedFields.has(field) || reportedCodes.has(ISSUE_CODES.cutoffAboveNyquist)) continue;
     if (Math.abs(edge) >= nyquist * (1 - RELATIVE_SLACK)) {
       issues.push({
         severity: 'error',
@@ -70,7 +71,8 @@ function chainChecks(params: Record<string, unknown>, input: StreamFormat, outpu
       });
     }
   }
-  if (output.sampleRate < input.sampleRate * (1 - RELATIVE_SLACK) && params.antiAlias !== true) {
+  const decimationReported = reportedCodes.has(ISSUE_CODES.decimateWithoutAntiAlias) || reportedCodes.has(ISSUE_CODES.decimateAliasing);
+  if (output.sampleRate < input.sampleRate * (1 - RELATIVE_SLACK) && params.antiAlias !== true && !decimationReported) {
     const newNyquist = output.sampleRate / 2;
     const factor = Number((input.sampleRate / output.sampleRate).toPrecision(6));
     if (input.bandLimit === undefined) {
