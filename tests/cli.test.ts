@@ -1,0 +1,174 @@
+/**
+ * The command line, run as a child process on small generated captures. Expected tone
+ * frequencies follow from the signals' own definitions; the WAV files come from our writer (its
+ * byte layout is checked against the RIFF/WAVE spec in tests/dsp/formats-wav.test.ts).
+ */
+import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { encodeWav, parseSigmfMeta } from '@/dsp/formats';
+import { complexTone, quadrille, writeChain, writeSigmf } from './cli-helpers';
+
+let dir = '';
+const FS = 1e6;
+const TONE = 123_000;
+
+beforeAll(() => {
+  dir = mkdtempSync(join(tmpdir(), 'quadrille-cli-'));
+  writeSigmf(join(dir, 'tone'), complexTone(50_000, FS, TONE), FS, { 'core:description': 'Saltmarsh test tone' }, 'cf32_le', 2.4e9);
+});
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+const mixChain = () => writeChain(dir, 'mix.json', [{ id: 'nco', kind: 'mix', params: { frequency: -100_000 }, probe: true }]);
+
+describe('quadrille run', () => {
+  it('writes results.json and a SigMF output pair; the tone shows as the probe peak', async () => {
+    const out = join(dir, 'run1');
+    const r = await quadrille('run', '--chain', mixChain(), '--input', join(dir, 'tone.sigmf-meta'), '--out', out);
+    expect(r.stderr).toMatch(/done in/);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toBe('');
+    expect(readdirSync(out).sort()).toEqual(['output.sigmf-data', 'output.sigmf-meta', 'results.json']);
+    const results = JSON.parse(readFileSync(join(out, 'results.json'), 'utf8'));
+    expect(results.engineVersion).toMatch(/^\d+\.\d+\.\d+/);
+    expect(results.input).toMatchObject({ container: 'sigmf', datatype: 'cf32_le', layout: 'complex', sampleRate: FS, centerFrequency: 2.4e9, samples: 50_000 });
+    const probe = results.probes.find((p: { stageId: string }) => p.stageId === 'nco');
+    expect(probe.kind).toBe('mix');
+    // common practice: mixing by e^{j 2 pi f t} with f = -100 kHz moves a tone at 123 kHz to 23 kHz.
+    const bin = FS / probe.spectrum.frequencies.length;
+    expect(Math.abs(probe.spectrum.peak.frequency - (TONE - 100_000))).toBeLessThan(bin / 2);
+    expect(probe.spectrum.frequencies).toHaveLength(probe.spectrum.levels.length);
+
+    const meta = parseSigmfMeta(readFileSync(join(out, 'output.sigmf-meta'), 'utf8'));
+    expect(meta.global).toMatchObject({ datatype: 'cf32_le', sampleRate: FS, numChannels: 1 });
+    expect(meta.captures[0].frequency).toBe(2.4e9 + 100_000);
+    const data = new Float32Array(readFileSync(join(out, 'output.sigmf-data')).buffer.slice(0));
+    expect(data.length).toBe(2 * 50_000);
+    const expected = complexTone(50_000, FS, TONE - 100_000);
+    let worst = 0;
+    for (let k = 0; k < data.length; k++) worst = Math.max(worst, Math.abs(data[k] - expected[k]));
+    expect(worst).toBeLessThan(1e-5); // float32 arithmetic on amplitude 0.5
+  });
+
+  it('reads a two-channel 16-bit WAV as complex I/Q when asked, and a mono WAV as real (rf32_le out)', async () => {
+    const iq = complexTone(20_000, 48_000, 6_000, 0.5);
+    writeFileSync(join(dir, 'iq.wav'), encodeWav({ sampleRate: 48_000, channels: 2, sampleFormat: 'pcm16' }, iq));
+    const out = join(dir, 'run-wav');
+    const r = await quadrille('run', '--chain', writeChain(dir, 'g.json', [{ id: 'g', kind: 'gain', params: { mode: 'fixed', gainDb: 0 }, probe: true }]), '--input', join(dir, 'iq.wav'), '--layout', 'complex', '--out', out);
+    expect(r.stderr).not.toMatch(/error/);
+    const results = JSON.parse(readFileSync(join(out, 'results.json'), 'utf8'));
+    expect(results.input).toMatchObject({ container: 'wav', layout: 'complex', sampleRate: 48_000, samples: 20_000 });
+    const peak = results.probes[0].spectrum.peak.frequency;
+    expect(Math.abs(peak - 6_000)).toBeLessThan(48_000 / results.probes[0].spectrum.frequencies.length);
+
+    const real = new Float32Array(20_000).map((_, n) => 0.5 * Math.cos((2 * Math.PI * 5_000 * n) / 48_000));
+    writeFileSync(join(dir, 'real.wav'), encodeWav({ sampleRate: 48_000, channels: 1, sampleFormat: 'pcm24', extensible: true }, real));
+    const out2 = join(dir, 'run-wav-real');
+    expect((await quadrille('run', '--chain', join(dir, 'g.json'), '--input', join(dir, 'real.wav'), '--out', out2)).code).toBe(0);
+    const meta = parseSigmfMeta(readFileSync(join(out2, 'output.sigmf-meta'), 'utf8'));
+    expect(meta.global.datatype).toBe('rf32_le');
+    const r2 = JSON.parse(readFileSync(join(out2, 'results.json'), 'utf8'));
+    expect(Math.abs(r2.probes[0].spectrum.peak.frequency - 5_000)).toBeLessThan(48_000 / 2 / r2.probes[0].spectrum.frequencies.length * 2);
+  });
+
+  it('reads a raw ci16_be file described by options', async () => {
+    const tone = complexTone(30_000, 2e6, -250_000, 0.7);
+    const buf = Buffer.alloc(tone.length * 2);
+    tone.forEach((v, k) => buf.writeInt16BE(Math.round(v * 32768), 2 * k));
+    writeFileSync(join(dir, 'capture.bin'), buf);
+    const out = join(dir, 'run-raw');
+    const r = await quadrille('run', '--chain', mixChain(), '--input', join(dir, 'capture.bin'), '--datatype', 'ci16_be', '--sample-rate', '2e6', '--center-frequency', '915e6', '--out', out);
+    expect(r.code).toBe(0);
+    const results = JSON.parse(readFileSync(join(out, 'results.json'), 'utf8'));
+    expect(results.input).toMatchObject({ container: 'raw', datatype: 'ci16_be', sampleRate: 2e6, centerFrequency: 915e6, samples: 30_000 });
+    const s = results.probes[0].spectrum;
+    expect(Math.abs(s.peak.frequency - (-250_000 - 100_000))).toBeLessThan(2e6 / s.frequencies.length / 2);
+  });
+});
+
+describe('bad input: one clear line, non-zero exit, nothing written', () => {
+  const expectFailure = async (args: string[], pattern: RegExp, code = 1) => {
+    const out = join(dir, `fail-${Math.random().toString(36).slice(2)}`);
+    const r = await quadrille(...args.map((a) => (a === 'OUT' ? out : a)));
+    expect(r.stderr).toMatch(pattern);
+    // Progress lines may come first; the error itself is exactly one line, and the last.
+    const lines = r.stderr.trim().split('\n');
+    expect(lines.filter((l) => l.startsWith('quadrille: error: '))).toHaveLength(1);
+    expect(lines[lines.length - 1]).toMatch(/^quadrille: error: /);
+    expect(r.code).toBe(code);
+    expect(existsSync(out)).toBe(false);
+  };
+
+  it('a missing input file', async () => await expectFailure(['run', '--chain', mixChain(), '--input', join(dir, 'absent.cf32'), '--out', 'OUT'], /input: .*absent.cf32: no such file/));
+  it('unknown datatype names it', async () => {
+    writeFileSync(join(dir, 'x.raw'), new Uint8Array(16));
+    await expectFailure(['run', '--chain', mixChain(), '--input', join(dir, 'x.raw'), '--datatype', 'cf16_le', '--sample-rate', '1e6', '--out', 'OUT'], /--datatype: unknown datatype "cf16_le"/);
+  });
+  it('zero and negative sample rates', async () => {
+    await expectFailure(['inspect', join(dir, 'x.raw'), '--datatype', 'cf32_le', '--sample-rate', '0'], /--sample-rate: must be > 0 Hz, got 0/);
+    writeSigmf(join(dir, 'neg'), complexTone(16, FS, 0), -5);
+    await expectFailure(['run', '--chain', mixChain(), '--input', join(dir, 'neg.sigmf-meta'), '--out', 'OUT'], /global.core:sample_rate: must be > 0 Hz, got -5/);
+  });
+  it('a byte count that is not whole samples', async () => {
+    writeFileSync(join(dir, 'odd.raw'), new Uint8Array(21));
+    await expectFailure(['run', '--chain', mixChain(), '--input', join(dir, 'odd.raw'), '--datatype', 'ci16_le', '--sample-rate', '1e6', '--out', 'OUT'], /21 bytes is not a whole number of 4-byte ci16_le complex samples/);
+  });
+  const writeNanCapture = () => {
+    const values = complexTone(300_000, FS, TONE);
+    values[2 * 200_001] = Number.NaN; // past the first 1 MiB read, so output files already exist
+    writeSigmf(join(dir, 'nan'), values, FS);
+  };
+  it('NaN in the middle of float data: the run fails and leaves no files', async () => {
+    writeNanCapture();
+    await expectFailure(['run', '--chain', mixChain(), '--input', join(dir, 'nan.sigmf-meta'), '--out', 'OUT'], /sample 200001 \(I\) is NaN/);
+  });
+  it('a WAV whose header lies about its data size', async () => {
+    const wav = encodeWav({ sampleRate: 8000, channels: 1, sampleFormat: 'pcm16' }, new Float32Array(100));
+    writeFileSync(join(dir, 'short.wav'), wav.subarray(0, wav.length - 50));
+    const gain = writeChain(dir, 'g0.json', [{ id: 'g', kind: 'gain', params: { mode: 'fixed', gainDb: 0 } }]);
+    await expectFailure(['run', '--chain', gain, '--input', join(dir, 'short.wav'), '--out', 'OUT'], /short.wav: (riff|data)\.size: .*declares|truncated/);
+  });
+  it('an unknown stage kind in the chain', async () => {
+    const chain = writeChain(dir, 'bad.json', [{ id: 'a', kind: 'mixer', params: {} }]);
+    await expectFailure(['run', '--chain', chain, '--input', join(dir, 'tone.sigmf-meta'), '--out', 'OUT'], /stages\[0\] \(id "a", mixer\): kind: unknown stage kind "mixer"/);
+  });
+  it('a missing option is a usage error (exit 2)', async () => await expectFailure(['run', '--input', 'x'], /run: --chain is required/, 2));
+
+  it('a failed run leaves an existing output directory as it was', async () => {
+    const out = join(dir, 'keep');
+    expect((await quadrille('run', '--chain', mixChain(), '--input', join(dir, 'tone.sigmf-meta'), '--out', out)).code).toBe(0);
+    const before = readFileSync(join(out, 'results.json'), 'utf8');
+    writeNanCapture();
+    const r = await quadrille('run', '--chain', mixChain(), '--input', join(dir, 'nan.sigmf-meta'), '--out', out);
+    expect(r.code).toBe(1);
+    expect(readdirSync(out).sort()).toEqual(['output.sigmf-data', 'output.sigmf-meta', 'results.json']);
+    expect(readFileSync(join(out, 'results.json'), 'utf8')).toBe(before);
+  });
+});
+
+describe('quadrille inspect and --help', () => {
+  it('prints metadata and a quick readout', async () => {
+    const r = await quadrille('inspect', join(dir, 'tone.sigmf-meta'), '--json');
+    expect(r.code).toBe(0);
+    const report = JSON.parse(r.stdout);
+    expect(report).toMatchObject({ datatype: 'cf32_le', layout: 'complex', sampleRate: FS, samples: 50_000, description: 'Saltmarsh test tone' });
+    expect(report.duration).toBeCloseTo(0.05, 12);
+    // A complex tone of amplitude 0.5 has power 0.25: 10 log10(0.25) = -6.02 dBFS (common practice).
+    expect(report.rmsDbfs[0]).toBeCloseTo(-6.0206, 3);
+    expect(report.peakDbfs[0]).toBeCloseTo(-6.0206, 3);
+    expect(Math.abs(report.dcOffset[0])).toBeLessThan(1e-3);
+    expect(Math.abs(report.strongestTone.frequency - TONE)).toBeLessThan(FS / 4096 / 2);
+    const text = await quadrille('inspect', join(dir, 'tone.sigmf-meta'));
+    const shown = Number(/strongest tone\s+(-?[\d.]+) Hz/.exec(text.stdout)?.[1]);
+    expect(Math.abs(shown - TONE)).toBeLessThan(FS / 4096 / 2);
+    expect(text.stdout).toMatch(/duration\s+0\.0500000 s/);
+  });
+
+  it('--help lists the commands', async () => {
+    const r = await quadrille('--help');
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/quadrille run --chain CHAIN\.json --input CAPTURE --out DIR/);
+    expect(r.stdout).toMatch(/quadrille inspect CAPTURE/);
+  });
+});
