@@ -59,6 +59,17 @@ export class Xoshiro128 {
     if ((this.s0 | this.s1 | this.s2 | this.s3) === 0) this.s0 = 1;
   }
 
+  /** A generator with its four state words set directly (for checks against reference outputs). */
+  static fromState(s0: number, s1: number, s2: number, s3: number): Xoshiro128 {
+    const g = new Xoshiro128(0);
+    g.s0 = s0 | 0;
+    g.s1 = s1 | 0;
+    g.s2 = s2 | 0;
+    g.s3 = s3 | 0;
+    if ((g.s0 | g.s1 | g.s2 | g.s3) === 0) throw new RangeError('state: must not be all zero');
+    return g;
+  }
+
   /** Next value as an unsigned 32-bit integer. */
   nextUint32(): number {
     const s1 = this.s1;
