@@ -117,11 +117,20 @@ function complexKernel(buf: Float64Array, h: Float64Array, length: number, first
     out[o + 6] = a3;
     out[o + 7] = b3;
   }
+  // Leftover outputs: the same operations in the same order as above, so an output does not
+  // depend on whether it fell into a group of four (block splits give identical samples).
   for (; m < count; m++) {
     let a = 0;
     let b = 0;
     let p = 2 * (first + m * step);
-    for (let k = 0; k < length; k++, p += 2) {
+    let k = 0;
+    for (; k < even; k += 2, p += 4) {
+      const c = h[k];
+      const e = h[k + 1];
+      a += c * buf[p] + e * buf[p + 2];
+      b += c * buf[p + 1] + e * buf[p + 3];
+    }
+    if (k < length) {
       a += h[k] * buf[p];
       b += h[k] * buf[p + 1];
     }
@@ -163,7 +172,9 @@ function realKernel(buf: Float64Array, h: Float64Array, length: number, first: n
   for (; m < count; m++) {
     let a = 0;
     let p = first + m * step;
-    for (let k = 0; k < length; k++, p++) a += h[k] * buf[p];
+    let k = 0;
+    for (; k < even; k += 2, p += 2) a += h[k] * buf[p] + h[k + 1] * buf[p + 1];
+    if (k < length) a += h[k] * buf[p];
     out[m] = a;
   }
 }

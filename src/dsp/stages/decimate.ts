@@ -4,8 +4,10 @@
  * the new Nyquist frequency or it aliases.
  */
 import { z } from 'zod';
-import type { ChainIssue, StageDefinition, StreamFormat } from '../types';
+import type { ChainIssue, StageDefinition, StageProcessor, StreamFormat } from '../types';
 import { ISSUE_CODES } from '../chain/issue-codes';
+import { designFilter } from '../filters/design';
+import type { FilterParams } from '../filters/filter-params';
 import { FirDecimator } from '../filters/fir-decimator';
 import { kaiserTaps } from '../filters/kaiser';
 
@@ -91,3 +93,28 @@ export const decimateStage: StageDefinition<DecimateParams> = {
     };
   },
 };
+
+// Full convolution a * b: the single FIR equivalent to running a then b.
+function convolve(a: ArrayLike<number>, b: ArrayLike<number>): Float64Array {
+  const out = new Float64Array(a.length + b.length - 1);
+  for (let i = 0; i < a.length; i++) for (let j = 0; j < b.length; j++) out[i + j] += a[i] * b[j];
+  return out;
+}
+
+/**
+ * One processor for a FIR `filter` stage followed by a `decimate` stage: the filter's taps (with
+ * the built-in anti-alias taps convolved in when antiAlias is on) run as one polyphase decimator,
+ * so only the kept outputs are computed, a factor `factor` less work than filtering at the full
+ * rate. With antiAlias off the output is bit-identical to running the two stages one after the
+ * other. Undefined when the filter is not FIR (an IIR needs every output for its state).
+ */
+export function createFilterDecimateProcessor(filterParams: FilterParams, decimateParams: DecimateParams, input: StreamFormat): StageProcessor | undefined {
+  const design = designFilter(filterParams, input.sampleRate);
+  if (design.kind !== 'fir') return undefined;
+  const taps = decimateParams.antiAlias ? convolve(design.taps, antiAliasTaps(decimateParams.factor)) : design.taps;
+  const decimator = new FirDecimator(taps, decimateParams.factor, input.sampleType === 'real' ? 1 : 2);
+  return {
+    process: (block) => decimator.process(block),
+    finish: () => new Float32Array(0),
+  };
+}

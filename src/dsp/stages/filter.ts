@@ -12,6 +12,7 @@ import { designFilter, filterStopBandEdge } from '../filters/design';
 import { FirFilter } from '../filters/fir-decimator';
 import { filterFields, filterSchema, type FilterParams } from '../filters/filter-params';
 import { sosPoleRadius } from '../filters/stability';
+import type { SosMatrix } from '../filters/zpk-to-sos';
 import { EMPTY_BLOCK } from './block-buffer';
 
 export type { FilterParams } from '../filters/filter-params';
@@ -23,6 +24,18 @@ function designIssue(error: unknown): ChainIssue {
   const message = error instanceof Error ? error.message : String(error);
   const field = message.split(':', 1)[0];
   return { severity: 'error', code: ISSUE_CODES.invalidParameter, message, ...(PARAM_NAMES.has(field) ? { field } : {}) };
+}
+
+/** An error issue when a cascade has a pole on or outside the unit circle, else undefined. */
+export function unstableFilterIssue(sos: SosMatrix): ChainIssue | undefined {
+  const radius = sosPoleRadius(sos);
+  if (radius < 1) return undefined;
+  return {
+    severity: 'error',
+    code: ISSUE_CODES.unstableFilter,
+    field: 'order',
+    message: `the IIR design is unstable: a pole lies at radius ${radius.toPrecision(9)} (on or outside the unit circle); lower the order or widen the band`,
+  };
 }
 
 const tighter = (a: number | undefined, b: number | undefined): number | undefined =>
@@ -58,17 +71,10 @@ export const filterStage: StageDefinition<FilterParams> = {
       issues.push(designIssue(error));
       return { output, issues };
     }
-    if (design.kind === 'iir') {
-      const radius = sosPoleRadius(design.sos);
-      if (!(radius < 1)) {
-        issues.push({
-          severity: 'error',
-          code: ISSUE_CODES.unstableFilter,
-          field: 'order',
-          message: `the IIR design is unstable: a pole lies at radius ${radius.toPrecision(9)} (on or outside the unit circle); lower the order or widen the band`,
-        });
-        return { output, issues };
-      }
+    const unstable = design.kind === 'iir' ? unstableFilterIssue(design.sos) : undefined;
+    if (unstable) {
+      issues.push(unstable);
+      return { output, issues };
     }
     const bandLimit = tighter(input.bandLimit, filterStopBandEdge(params, design, input.sampleRate));
     if (bandLimit === undefined) delete output.bandLimit;
@@ -78,9 +84,8 @@ export const filterStage: StageDefinition<FilterParams> = {
   create(params, input) {
     const design = designFilter(params, input.sampleRate);
     const channels = input.sampleType === 'real' ? 1 : 2;
-    if (design.kind === 'iir' && !(sosPoleRadius(design.sos) < 1)) {
-      throw new RangeError('order: the IIR design is unstable (a pole on or outside the unit circle)');
-    }
+    const unstable = design.kind === 'iir' ? unstableFilterIssue(design.sos) : undefined;
+    if (unstable) throw new RangeError(unstable.message);
     const filter = design.kind === 'fir' ? new FirFilter(design.taps, channels) : new BiquadCascade(design.sos, channels);
     return {
       process: (block) => filter.process(block),

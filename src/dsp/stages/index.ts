@@ -10,8 +10,12 @@ import { mixStage } from './mix';
 import { quadratureCombineStage } from './quadrature-combine';
 import { quadratureMixStage } from './quadrature-mix';
 import { trimStage } from './trim';
-// --- filters engineer: import filterStage and decimateStage here ---
+import { decimateStage } from './decimate';
+import { filterStage } from './filter';
 // --- spectral engineer: import spectrumStage, spectrogramStage and measureStage here ---
+import { spectrumStage } from './spectrum';
+import { spectrogramStage } from './spectrogram';
+import { measureStage } from './measure';
 
 /** Every stage kind, in picker order (signal flow of a typical chain). */
 const definitions: StageDefinition<any>[] = [
@@ -20,10 +24,14 @@ const definitions: StageDefinition<any>[] = [
   dcRemoveStage,
   iqCorrectStage,
   mixStage,
-  // --- filters engineer: filterStage, decimateStage ---
+  filterStage,
+  decimateStage,
   gainStage,
   trimStage,
   // --- spectral engineer: spectrumStage, spectrogramStage, measureStage ---
+  spectrumStage,
+  spectrogramStage,
+  measureStage,
 ];
 
 /** Stage definitions keyed by kind. */
@@ -41,4 +49,4 @@ export function listStageKinds(): { kind: string; title: string; summary: string
   return definitions.map(({ kind, title, summary }) => ({ kind, title, summary }));
 }
 
-export { dcRemoveStage, gainStage, iqCorrectStage, mixStage, quadratureCombineStage, quadratureMixStage, trimStage };
+export { decimateStage, filterStage, dcRemoveStage, gainStage, iqCorrectStage, mixStage, quadratureCombineStage, quadratureMixStage, trimStage };
