@@ -166,7 +166,7 @@ describe('NCO phase over 2^27 samples', () => {
     const processor = mixStage.create(mixStage.schema.parse({ frequency, phase: phaseDeg }), { sampleRate, sampleType: 'complex' });
     const ones = new Float32Array(2 * blockSamples);
     for (let n = 0; n < blockSamples; n++) ones[2 * n] = 1;
-    let last = new Float32Array(0);
+    let last: Float32Array = new Float32Array(0);
     for (let start = 0; start < total; start += blockSamples) last = processor.process(ones);
     const firstOfLast = total - blockSamples;
     let worst = 0;
