@@ -9,7 +9,7 @@
 import { WelchAccumulator } from '../spectral/welch';
 import type { SpectralSampleType } from '../spectral/periodogram';
 import { enbwBins, mainLobeHalfWidthBins } from '../windows/window-metrics';
-import { windowFunction, DEFAULT_KAISER_BETA, type WindowName } from '../windows/window-function';
+import { DEFAULT_KAISER_BETA, type WindowName } from '../windows/window-function';
 
 export interface MeasuredSpectrum {
   /** Linear power per bin ('spectrum' scaling), display order (0 Hz centred for complex). */
@@ -62,15 +62,18 @@ export function measuredSpectrum(welch: WelchAccumulator, window: WindowName = '
     throw new RangeError('welch: readouts need mean averaging with "spectrum" scaling');
   }
   welch.finish();
-  const w = windowFunction(window, welch.fftSize, { periodic: true, beta });
+  // A stream shorter than one segment was analysed with a shorter, zero-padded window: ENBW (in
+  // fftSize bins) and the main lobe widen by fftSize / window length.
+  const w = welch.windowCoefficients;
+  const stretch = welch.fftSize / w.length;
   return {
     power: welch.power(),
     frequencies: welch.frequencies(),
     sampleRate: welch.sampleRate,
     fftSize: welch.fftSize,
     sampleType: welch.sampleType,
-    enbwBins: enbwBins(w),
-    mainLobeBins: mainLobeHalfWidthBins(window, beta ?? DEFAULT_KAISER_BETA),
+    enbwBins: enbwBins(w) * stretch,
+    mainLobeBins: Math.ceil(mainLobeHalfWidthBins(window, beta ?? DEFAULT_KAISER_BETA) * stretch),
     zeroBin: welch.sampleType === 'complex' ? welch.fftSize / 2 : 0,
     window: w,
   };

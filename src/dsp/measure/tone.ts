@@ -33,9 +33,9 @@ export function lobePower(spectrum: MeasuredSpectrum, centre: number, halfWidth:
   return sum / spectrum.enbwBins;
 }
 
-/** |W(offset)|^2 of the window's DTFT at `offset` bins from its centre. */
-function windowPowerAt(window: Float64Array, offset: number): number {
-  const step = (2 * Math.PI * offset) / window.length;
+/** |W(offset)|^2 of the window's DTFT at `offset` bins (of an fftSize-point DFT) from its centre. */
+function windowPowerAt(window: Float64Array, offset: number, fftSize: number): number {
+  const step = (2 * Math.PI * offset) / fftSize;
   let re = 0;
   let im = 0;
   for (let n = 0; n < window.length; n++) {
@@ -50,10 +50,10 @@ function windowPowerAt(window: Float64Array, offset: number): number {
  * the neighbour-to-peak power ratio with the window's own DTFT (bisection). Exact for a lone tone
  * with any window, where a parabola fit is biased by the window shape (flat top: a tenth of a bin).
  */
-function offsetFromRatio(window: Float64Array, ratio: number): number {
+function offsetFromRatio(window: Float64Array, fftSize: number, ratio: number): number {
   let lo = 0;
   let hi = 0.5;
-  const at = (d: number) => windowPowerAt(window, 1 - d) / windowPowerAt(window, d);
+  const at = (d: number) => windowPowerAt(window, 1 - d, fftSize) / windowPowerAt(window, d, fftSize);
   if (ratio <= at(lo)) return 0;
   if (ratio >= 1) return 0.5;
   for (let i = 0; i < 40; i++) {
@@ -79,7 +79,7 @@ export function findTone(spectrum: MeasuredSpectrum, options: { excludeDc?: bool
   let frequency = spectrum.frequencies[best];
   if (best > 0 && best < power.length - 1 && power[best] > 0) {
     const side = power[best + 1] >= power[best - 1] ? 1 : -1;
-    frequency += side * offsetFromRatio(spectrum.window, power[best + side] / power[best]) * step;
+    frequency += side * offsetFromRatio(spectrum.window, spectrum.fftSize, power[best + side] / power[best]) * step;
   }
   const p = lobePower(spectrum, best, spectrum.mainLobeBins);
   return { bin: best, frequency, power: p, levelDbfs: 10 * Math.log10(p) };

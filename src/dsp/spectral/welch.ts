@@ -99,6 +99,11 @@ export class WelchAccumulator {
     }
   }
 
+  /** Window coefficients in use (shorter than fftSize after a short stream was finished). */
+  get windowCoefficients(): Float64Array {
+    return this.window;
+  }
+
   /** Segments averaged so far. */
   get segments(): number {
     return this.periodogram.segments;
