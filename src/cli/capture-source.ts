@@ -121,8 +121,8 @@ function rawLike(
     totalSamples: dataBytes / bytesPerSample,
     *blocks() {
       const decoder = new SampleDecoder(datatype, layout, { zeroCopy: true });
-      for (const bytes of readChunks(dataPath, readBytes, 0, dataBytes)) yield decoder.decode(bytes);
-      decoder.end();
+      for (const bytes of readChunks(dataPath, readBytes, 0, dataBytes)) yield wrapFormatErrors(dataPath, () => decoder.decode(bytes));
+      wrapFormatErrors(dataPath, () => decoder.end());
     },
   };
 }

@@ -8,6 +8,8 @@ import { parseArgs } from 'node:util';
 import { SIGMF_DATATYPES } from '../dsp/formats/datatype';
 import { UsageError } from './errors';
 import type { CaptureOptions } from './capture-source';
+import { formatInspectReport, inspectCapture } from './inspect-command';
+import { runCommand } from './run-command';
 
 const HELP = `Quadrille command line: run processing chains on radio captures.
 
@@ -95,7 +97,6 @@ async function main(argv: string[]): Promise<number> {
     const onSignal = () => controller.abort();
     process.once('SIGINT', onSignal);
     process.once('SIGTERM', onSignal);
-    const { runCommand } = await import('./run-command');
     await runCommand(
       { ...captureOptions(values), chain: values.chain as string, input: values.input as string, out: values.out as string, quiet: Boolean(values.quiet) },
       controller.signal,
@@ -105,7 +106,6 @@ async function main(argv: string[]): Promise<number> {
   if (command === 'inspect') {
     const { values, positionals } = parse(rest, { ...CAPTURE_OPTIONS, json: { type: 'boolean' } });
     if (positionals.length !== 1) throw new UsageError('inspect: give exactly one CAPTURE (quadrille inspect CAPTURE)');
-    const { inspectCapture, formatInspectReport } = await import('./inspect-command');
     const report = inspectCapture(positionals[0], captureOptions(values));
     process.stdout.write(values.json ? `${JSON.stringify(report, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 2)}\n` : `${formatInspectReport(report)}\n`);
     return 0;

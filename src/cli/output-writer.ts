@@ -4,7 +4,7 @@
  * succeeded; `abort()` removes the temporary files (and the directory if this run created it).
  */
 import { createHash, type Hash } from 'node:crypto';
-import { closeSync, existsSync, fsyncSync, mkdirSync, openSync, readdirSync, renameSync, rmdirSync, unlinkSync, writeFileSync, writeSync } from 'node:fs';
+import { closeSync, existsSync, mkdirSync, openSync, readdirSync, renameSync, rmdirSync, unlinkSync, writeFileSync, writeSync } from 'node:fs';
 import { join } from 'node:path';
 import { SampleEncoder, formatSigmfMeta, sigmfShapeOfLayout, type SigmfMeta } from '../dsp/formats/index';
 import type { StreamFormat } from '../dsp/types';
@@ -87,7 +87,6 @@ export class RunOutput {
     writeFileSync(this.temps.meta, formatSigmfMeta(sigmf));
     const fd = openSync(this.temps.results, 'w');
     writeSync(fd, `${JSON.stringify(results, jsonNumbers, 2)}\n`);
-    fsyncSync(fd);
     closeSync(fd);
     // results.json last: its presence means the run finished.
     renameSync(this.temps.data, join(this.dir, OUTPUT_FILES.data));

@@ -12,7 +12,7 @@
  */
 import { spawn } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, rmSync, statSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { cpus, loadavg, tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { BENCH_SAMPLE_RATE, BENCH_TONE_HZ, writeBenchCapture } from './capture';
@@ -25,7 +25,7 @@ const scipyPath = join(here, 'ddc_scipy.py');
 const TIME = '/usr/bin/time';
 const MiB = 1024 * 1024;
 
-interface Measured { wallSeconds: number; peakRssBytes: number | null; stdout: string; stderr: string }
+interface Measured { wallSeconds: number; cpuSeconds: number | null; peakRssBytes: number | null; stdout: string; stderr: string }
 interface Outcome extends Measured { peakFrequency: number; peakLevel: number; innerSeconds: number; samples: number }
 
 function argValue(name: string): string | undefined {
@@ -50,10 +50,13 @@ function measure(command: string, args: string[]): Promise<Measured> {
       if (code !== 0) return reject(new Error(`${command} ${args.join(' ')} exited with ${code}:\n${stderr}`));
       const rss = /Maximum resident set size \(kbytes\): (\d+)/.exec(stderr);
       const elapsed = /Elapsed \(wall clock\) time[^:]*: (?:(\d+):)?(\d+):(\d+(?:\.\d+)?)/.exec(stderr);
+      const user = /User time \(seconds\): ([\d.]+)/.exec(stderr);
+      const system = /System time \(seconds\): ([\d.]+)/.exec(stderr);
       const timeWall = elapsed ? Number(elapsed[1] ?? 0) * 3600 + Number(elapsed[2]) * 60 + Number(elapsed[3]) : null;
       resolvePromise({
         // /usr/bin/time's wall clock has 10 ms resolution; ours includes the spawn itself. Use ours.
         wallSeconds: timeWall === null ? wallSeconds : Math.max(wallSeconds, timeWall),
+        cpuSeconds: user && system ? Number(user[1]) + Number(system[1]) : null,
         peakRssBytes: rss ? Number(rss[1]) * 1024 : null,
         stdout,
         stderr,
@@ -112,22 +115,24 @@ async function main(): Promise<void> {
     const bytes = statSync(`${base}.sigmf-data`).size;
     const binHz = BENCH_SAMPLE_RATE / 8 / 4096;
     const rows: [string, Outcome & { rssMax: number | null }][] = [['quadrille CLI', ours], ['numpy/SciPy', scipy]];
-    console.log(`\nreference DDC: ${n} (2^24) cf32 samples at ${BENCH_SAMPLE_RATE / 1e6} Msps, ${bytes / MiB} MiB; median of ${runs} run(s)`);
-    console.log('tool            wall s  Msamples/s  compute s  peak RSS MiB  peak Hz        peak dBFS/Hz');
+    console.log(`\nreference DDC: ${n} (2^24) cf32 samples at ${BENCH_SAMPLE_RATE / 1e6} Msps, ${bytes / MiB} MiB; median of ${runs} run(s); load average ${loadavg().map((v) => v.toFixed(1)).join(' ')} on ${cpus().length} CPU(s)`);
+    console.log('tool            wall s  Msamples/s   CPU s  compute s  peak RSS MiB     peak Hz  peak dBFS/Hz');
     for (const [name, o] of rows) {
       console.log(
-        `${name.padEnd(14)}  ${fmt(o.wallSeconds, 3).padStart(6)}  ${fmt(n / o.wallSeconds / 1e6, 1).padStart(10)}  ${fmt(o.innerSeconds, 3).padStart(9)}  ${fmt(o.rssMax === null ? null : o.rssMax / MiB, 1).padStart(12)}  ${o.peakFrequency.toFixed(2).padStart(12)}  ${o.peakLevel.toFixed(4).padStart(12)}`,
+        `${name.padEnd(14)}  ${fmt(o.wallSeconds, 3).padStart(6)}  ${fmt(n / o.wallSeconds / 1e6, 1).padStart(10)}  ${fmt(o.cpuSeconds, 2).padStart(6)}  ${fmt(o.innerSeconds, 3).padStart(9)}  ${fmt(o.rssMax === null ? null : o.rssMax / MiB, 1).padStart(12)}  ${o.peakFrequency.toFixed(2).padStart(10)}  ${o.peakLevel.toFixed(4).padStart(12)}`,
       );
     }
+    console.log('(wall s, CPU s and RSS: whole child process incl. start-up; compute s: ours = run inside the CLI, SciPy = after imports)');
     const ratio = ours.wallSeconds / scipy.wallSeconds;
+    const cpuRatio = ours.cpuSeconds !== null && scipy.cpuSeconds !== null ? ours.cpuSeconds / scipy.cpuSeconds : null;
     const computeRatio = ours.innerSeconds / scipy.innerSeconds;
     const msps = n / ours.wallSeconds / 1e6;
     const df = Math.abs(ours.peakFrequency - scipy.peakFrequency);
     const dl = Math.abs(ours.peakLevel - scipy.peakLevel);
     const verdict = (ok: boolean) => (ok ? 'OK' : 'MISS');
-    console.log(`\nwall-time ratio ours/SciPy (whole processes): ${ratio.toFixed(3)}  target <= 0.30  ${verdict(ratio <= 0.3)}`);
-    console.log(`compute-time ratio (ours: run inside the CLI; SciPy: after imports): ${computeRatio.toFixed(3)}`);
-    console.log(`throughput: ${msps.toFixed(1)} Msamples/s (whole process)  target >= 20  ${verdict(msps >= 20)}`);
+    console.log(`\nwall-time ratio ours/SciPy: ${ratio.toFixed(3)}  target <= 0.30  ${verdict(ratio <= 0.3)}`);
+    console.log(`CPU-time ratio ours/SciPy: ${fmt(cpuRatio, 3)}   compute-time ratio: ${computeRatio.toFixed(3)}`);
+    console.log(`throughput: ${msps.toFixed(1)} Msamples/s (whole process, wall)  target >= 20  ${verdict(msps >= 20)}`);
     console.log(`peak RSS: ${fmt(ours.rssMax === null ? null : ours.rssMax / MiB, 1)} MiB  target <= 128  ${verdict(ours.rssMax !== null && ours.rssMax <= 128 * MiB)}`);
     console.log(`peaks agree: ${df.toFixed(3)} Hz apart (${(df / binHz).toFixed(4)} bin), ${dl.toFixed(4)} dB apart (limit 0.05 dB)  ${verdict(dl <= 0.05 && df <= 0.05 * binHz)}`);
     console.log(`expected tone after the mix: ${(BENCH_TONE_HZ - 1.25e6).toFixed(0)} Hz`);
