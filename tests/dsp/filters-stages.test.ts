@@ -4,6 +4,7 @@ import { filterStage, unstableFilterIssue } from '@/dsp/stages/filter';
 import { getStageDefinition } from '@/dsp/stages/index';
 import { designFilter, filterResponse, filterSchema, frequencyResponse, windowedSincTaps } from '@/dsp/filters';
 import type { StreamFormat } from '@/dsp/types';
+import { runChain } from '@/dsp/chain/runner';
 
 const complex10M: StreamFormat = { sampleRate: 10e6, sampleType: 'complex' };
 const parseFilter = (p: unknown) => filterSchema.parse(p);
@@ -161,5 +162,29 @@ describe('decimate stage', () => {
     expect(fused.process(x)).toEqual(separate);
     // IIR filters keep every output for their state: no fusion.
     expect(createFilterDecimateProcessor(parseFilter({ design: 'iir', cutoff: 400e3 }), decimateParams, complex10M)).toBeUndefined();
+  });
+
+  it('the runner fuses filter + decimate, with the same output as unfused (filter probed)', async () => {
+    let seed = 3;
+    const x = Float32Array.from({ length: 2 * 30000 }, () => ((seed = (seed * 48271) % 2147483647) / 2147483647) * 2 - 1);
+    const blocks = [x.subarray(0, 2 * 7001), x.subarray(2 * 7001, 2 * 20000), x.subarray(2 * 20000)];
+    const collect = async (probeFilter: boolean) => {
+      const doc = {
+        version: 1 as const,
+        name: 'fusion',
+        stages: [
+          { id: 'lp', kind: 'filter', params: { design: 'window', cutoff: 400e3, taps: 127 }, probe: probeFilter, bypass: false },
+          { id: 'dec', kind: 'decimate', params: { factor: 8, antiAlias: false }, probe: false, bypass: false },
+        ],
+      };
+      const parts: number[] = [];
+      const result = await runChain(doc as never, complex10M, blocks, { onOutput: (b) => void parts.push(...b) });
+      return { out: Float32Array.from(parts), result };
+    };
+    const fused = await collect(false);
+    const plain = await collect(true);
+    expect(fused.result.outputFormat.sampleRate).toBe(1.25e6);
+    expect(fused.out.length).toBe(2 * Math.ceil(30000 / 8));
+    expect(fused.out).toEqual(plain.out);
   });
 });

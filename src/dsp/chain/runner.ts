@@ -5,6 +5,8 @@
  */
 import { valuesPerSample, type ChainIssue, type ProbeOutput, type StageDefinition, type StageProcessor, type StreamFormat } from '../types';
 import { stageDefinitions } from '../stages/index';
+import { createFilterDecimateProcessor, decimateStage, type DecimateParams } from '../stages/decimate';
+import { filterStage, type FilterParams } from '../stages/filter';
 import { DefaultProbe } from './default-probe';
 import type { ChainDocument } from './document';
 import { stageLabel } from './messages';
@@ -131,6 +133,18 @@ export async function runChain(
     if (stage.probe && !active.analysis) active.defaultProbe = new DefaultProbe(stage.output);
     return active;
   });
+
+  // A FIR filter right before a decimation runs as one polyphase decimator that computes only the
+  // kept outputs; the filter's full-rate output is only needed when it is probed.
+  for (let s = 0; s + 1 < stages.length; s++) {
+    const [filter, decimate] = [resolved[s], resolved[s + 1]];
+    if (filter.definition !== filterStage || decimate.definition !== decimateStage) continue;
+    if (!stages[s].processor || !stages[s + 1].processor || stages[s].defaultProbe) continue;
+    const fused = createFilterDecimateProcessor(filter.params as FilterParams, decimate.params as DecimateParams, filter.input);
+    if (!fused) continue;
+    stages[s].processor = fused;
+    stages[s + 1].processor = { process: (block) => block, finish: () => new Float32Array(0) };
+  }
 
   let samplesIn = 0;
   let samplesOut = 0;
