@@ -19,6 +19,8 @@ const designCache = new Map<string, FilterDesign>();
  * field when the parameters cannot be designed (e.g. an edge at or above Nyquist).
  */
 export function designFilter(params: FilterParams, sampleRate: number): FilterDesign {
+  // Pasted taps need no design, and their key would be as long as the taps themselves.
+  if (params.design === 'taps') return computeDesign(params, sampleRate);
   const key = `${sampleRate}|${JSON.stringify(params)}`;
   const cached = designCache.get(key);
   if (cached) {
