@@ -22,7 +22,8 @@ function newestChange(path: string): number {
   return readdirSync(path).reduce((newest, name) => Math.max(newest, newestChange(join(path, name))), stats.mtimeMs);
 }
 
-async function prepareDatabase(): Promise<void> {
+/** Migrates and seeds; answers whether the demo accounts exist (so their credentials are worth printing). */
+async function prepareDatabase(): Promise<boolean> {
   const db = knex(knexfile);
   try {
     const [, applied] = (await db.migrate.latest()) as [number, string[]];
@@ -31,6 +32,7 @@ async function prepareDatabase(): Promise<void> {
       const added = await seedDemo(db);
       if (added.length) console.log(`Seeded the Saltmarsh Telemetry demo: ${added.join(', ')}.`);
     }
+    return Boolean(await db('users').where({ email: demoAccounts[0]!.email }).first());
   } finally {
     await db.destroy();
   }
@@ -61,7 +63,7 @@ async function waitForServer(url: string, timeoutMs = 60_000): Promise<boolean> 
   return false;
 }
 
-async function serve(): Promise<void> {
+async function serve(showDemo: boolean): Promise<void> {
   const host = process.env.HOST || 'localhost';
   const port = process.env.PORT || '4321';
   const server = spawn(process.execPath, [entry], { stdio: 'inherit', env: { ...process.env, HOST: host, PORT: port } });
@@ -74,13 +76,13 @@ async function serve(): Promise<void> {
     return;
   }
   console.log(`\nQuadrille is running at ${url}`);
-  if (demoEnabled()) {
+  if (showDemo) {
     console.log(`Demo accounts (local demo only), password "${demoPassword}":`);
     for (const account of demoAccounts) console.log(`  ${account.role.padEnd(9)} ${account.email}`);
   }
   console.log('Press Ctrl+C to stop.');
 }
 
-await prepareDatabase();
+const demoAccountsExist = await prepareDatabase();
 buildIfNeeded();
-await serve();
+await serve(demoAccountsExist && demoEnabled());
