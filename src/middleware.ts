@@ -23,7 +23,7 @@ const session = defineMiddleware(async (context, next) => {
     context.locals.user = user;
     context.locals.session = session;
   } catch (error) {
-    // A database hiccup must not sign everyone out silently into a loop; answer it as an error.
+    // A database failure is a server error, not a reason to treat the visitor as signed out.
     return errorResponse(error);
   }
   return next();
