@@ -9,8 +9,12 @@
  */
 import { assertFftSize, getFftPlan, type FftPlan } from '../fft/plan';
 
-/** Receives the power of one segment; `power` is reused for the next segment. */
-export type SegmentConsumer = (power: Float64Array) => void;
+/**
+ * Receives the DFT of one windowed segment, interleaved (re, im), bins 0..bins-1 in natural order;
+ * the consumer forms |X_k|^2 itself so power and accumulation take one pass. `spectrum` is reused
+ * for the next segment.
+ */
+export type SegmentConsumer = (spectrum: Float64Array) => void;
 
 /** Sample types the spectral estimators accept (a real-pair stream must be combined first). */
 export type SpectralSampleType = 'real' | 'complex';
@@ -41,7 +45,6 @@ export class SegmentPeriodogram {
   private filledValues = 0;
   private readonly windowed: Float64Array;
   private readonly spectrum: Float64Array;
-  private readonly power: Float64Array;
 
   constructor(sampleType: SpectralSampleType, window: Float64Array, hop: number) {
     const n = window.length;
@@ -61,7 +64,6 @@ export class SegmentPeriodogram {
     this.windowed = new Float64Array(per * n);
     this.spectrum = new Float64Array(2 * n);
     this.bins = sampleType === 'complex' ? n : n / 2 + 1;
-    this.power = new Float64Array(this.bins);
   }
 
   /** Consume one block of samples (interleaved I/Q for complex); calls `consume` once per finished segment. */
@@ -71,20 +73,38 @@ export class SegmentPeriodogram {
       throw new RangeError(`block: length ${block.length} is not a whole number of complex samples`);
     }
     const segmentValues = this.pending.length;
-    let offset = 0;
-    while (offset < block.length) {
-      const take = Math.min(segmentValues - this.filledValues, block.length - offset);
-      this.pending.set(block.subarray(offset, offset + take), this.filledValues);
+    const hopValues = this.hop * per;
+    let pos = 0;
+    // A segment begun in earlier blocks is completed through the pending buffer.
+    while (this.filledValues > 0) {
+      const take = Math.min(segmentValues - this.filledValues, block.length - pos);
+      this.pending.set(block.subarray(pos, pos + take), this.filledValues);
       this.filledValues += take;
-      offset += take;
-      if (this.filledValues === segmentValues) {
-        this.transformPending(consume);
-        // Keep the overlapping tail as the start of the next segment.
-        const hopValues = this.hop * per;
-        this.pending.copyWithin(0, hopValues, segmentValues);
-        this.filledValues = segmentValues - hopValues;
+      pos += take;
+      if (this.filledValues < segmentValues) {
+        this.samplesIn += block.length / per;
+        return;
       }
+      this.windowFromPending(0, this.window, this.fftSize);
+      this.transformWindowed(consume);
+      const nextStart = pos - (segmentValues - hopValues);
+      if (nextStart >= 0) {
+        this.filledValues = 0;
+        pos = nextStart;
+        break;
+      }
+      // The next segment still starts in earlier blocks: keep its head.
+      this.pending.copyWithin(0, hopValues, segmentValues);
+      this.filledValues = segmentValues - hopValues;
     }
+    // Segments lying wholly inside the block are windowed straight from it, without a copy.
+    while (pos + segmentValues <= block.length) {
+      this.windowFromBlock(block, pos, this.window, this.fftSize);
+      this.transformWindowed(consume);
+      pos += hopValues;
+    }
+    this.pending.set(block.subarray(pos), 0);
+    this.filledValues = block.length - pos;
     this.samplesIn += block.length / per;
   }
 
@@ -101,40 +121,43 @@ export class SegmentPeriodogram {
     const count = this.pendingSamples;
     if (shortWindow.length !== count) throw new RangeError(`shortWindow: needs ${count} coefficients, got ${shortWindow.length}`);
     this.windowed.fill(0);
-    this.windowInto(shortWindow, count);
+    this.windowFromPending(0, shortWindow, count);
     this.transformWindowed(consume);
   }
 
-  private transformPending(consume: SegmentConsumer): void {
-    this.windowInto(this.window, this.fftSize);
-    this.transformWindowed(consume);
-  }
-
-  private windowInto(w: Float64Array, count: number): void {
+  /** windowed[0..count) = pending[start..] x w, for `count` samples. */
+  private windowFromPending(start: number, w: Float64Array, count: number): void {
     const src = this.pending;
     const dst = this.windowed;
     if (this.sampleType === 'complex') {
-      for (let k = 0, j = 0; k < count; k++, j += 2) {
+      for (let k = 0, j = 0, s = start; k < count; k++, j += 2, s += 2) {
         const g = w[k];
-        dst[j] = src[j] * g;
-        dst[j + 1] = src[j + 1] * g;
+        dst[j] = src[s] * g;
+        dst[j + 1] = src[s + 1] * g;
       }
     } else {
-      for (let k = 0; k < count; k++) dst[k] = src[k] * w[k];
+      for (let k = 0, s = start; k < count; k++, s++) dst[k] = src[s] * w[k];
+    }
+  }
+
+  /** Same as windowFromPending for a segment read straight from an input block (kept monomorphic for speed). */
+  private windowFromBlock(src: Float32Array, start: number, w: Float64Array, count: number): void {
+    const dst = this.windowed;
+    if (this.sampleType === 'complex') {
+      for (let k = 0, j = 0, s = start; k < count; k++, j += 2, s += 2) {
+        const g = w[k];
+        dst[j] = src[s] * g;
+        dst[j + 1] = src[s + 1] * g;
+      }
+    } else {
+      for (let k = 0, s = start; k < count; k++, s++) dst[k] = src[s] * w[k];
     }
   }
 
   private transformWindowed(consume: SegmentConsumer): void {
-    const spec = this.spectrum;
-    if (this.sampleType === 'complex') this.plan.forward(this.windowed, spec);
-    else this.plan.forwardReal(this.windowed, spec);
-    const power = this.power;
-    for (let k = 0, j = 0; k < this.bins; k++, j += 2) {
-      const re = spec[j];
-      const im = spec[j + 1];
-      power[k] = re * re + im * im;
-    }
+    if (this.sampleType === 'complex') this.plan.forward(this.windowed, this.spectrum);
+    else this.plan.forwardReal(this.windowed, this.spectrum);
     this.segments++;
-    consume(power);
+    consume(this.spectrum);
   }
 }

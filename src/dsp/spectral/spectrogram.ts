@@ -53,7 +53,7 @@ export class SpectrogramAccumulator {
   /** Segments each full row collects (doubles at every merge). */
   private segmentsPerRow = 1;
   private readonly spare: Float64Array[] = [];
-  private readonly addSegment: (power: Float64Array) => void;
+  private readonly addSegment: (spectrum: Float64Array) => void;
 
   constructor(options: SpectrogramOptions) {
     assertSampleRate(options.sampleRate);
@@ -85,17 +85,16 @@ export class SpectrogramAccumulator {
     return this.segmentsPerRow;
   }
 
-  private add(power: Float64Array): void {
+  private add(spec: Float64Array): void {
     const segmentIndex = this.periodogram.segments - 1;
     if (!this.current) {
-      const buffer = this.spare.pop() ?? new Float64Array(power.length);
-      buffer.set(power);
-      this.current = { power: buffer, count: 1, firstSegment: segmentIndex };
-    } else {
-      const acc = this.current.power;
-      for (let k = 0; k < acc.length; k++) acc[k] += power[k];
-      this.current.count++;
+      const buffer = this.spare.pop() ?? new Float64Array(this.periodogram.bins);
+      buffer.fill(0);
+      this.current = { power: buffer, count: 0, firstSegment: segmentIndex };
     }
+    const acc = this.current.power;
+    for (let k = 0, j = 0; k < acc.length; k++, j += 2) acc[k] += spec[j] * spec[j] + spec[j + 1] * spec[j + 1];
+    this.current.count++;
     if (this.current.count < this.segmentsPerRow) return;
     this.rows.push(this.current);
     this.current = null;

@@ -49,7 +49,7 @@ export class WelchAccumulator {
   private window: Float64Array;
   private readonly periodogram: SegmentPeriodogram;
   private readonly accumulated: Float64Array;
-  private readonly addSegment: (power: Float64Array) => void;
+  private readonly addSegment: (spectrum: Float64Array) => void;
   private finished = false;
 
   constructor(options: WelchOptions) {
@@ -69,11 +69,14 @@ export class WelchAccumulator {
     this.accumulated = acc;
     this.addSegment =
       this.averaging === 'mean'
-        ? (power) => {
-            for (let k = 0; k < acc.length; k++) acc[k] += power[k];
+        ? (spec) => {
+            for (let k = 0, j = 0; k < acc.length; k++, j += 2) acc[k] += spec[j] * spec[j] + spec[j + 1] * spec[j + 1];
           }
-        : (power) => {
-            for (let k = 0; k < acc.length; k++) if (power[k] > acc[k]) acc[k] = power[k];
+        : (spec) => {
+            for (let k = 0, j = 0; k < acc.length; k++, j += 2) {
+              const p = spec[j] * spec[j] + spec[j + 1] * spec[j + 1];
+              if (p > acc[k]) acc[k] = p;
+            }
           };
   }
 
