@@ -16,7 +16,7 @@ export const buttonSmall =
 
 /** Text inputs and selects; the invalid state is driven by aria-invalid. */
 export const input =
-  'block w-full rounded-md border border-line bg-panel px-3 py-2 text-sm text-ink placeholder:text-muted/70 focus:border-accent aria-[invalid=true]:border-danger';
+  'block w-full rounded-md border border-muted/40 bg-surface px-3 py-2 text-sm text-ink placeholder:text-muted/70 focus:border-accent aria-[invalid=true]:border-danger';
 
 /** Field labels above inputs. */
 export const label = 'mb-1 block text-sm font-medium';

@@ -18,7 +18,7 @@ interface UsersTableProps {
 export function UsersTable({ accounts, currentUserId, savingId, ready, onRole, onDisabled }: UsersTableProps) {
   return (
     <div className="overflow-x-auto rounded-lg border border-line bg-panel">
-      <table className="w-full text-sm" data-testid="users-table">
+      <table className="w-full whitespace-nowrap text-sm" data-testid="users-table">
         <caption className="sr-only">Accounts</caption>
         <thead className="border-b border-line text-left text-xs uppercase tracking-wide text-muted">
           <tr>
@@ -45,12 +45,16 @@ export function UsersTable({ accounts, currentUserId, savingId, ready, onRole, o
                 </td>
                 <td className="px-4 py-2">{a.name}</td>
                 <td className="px-4 py-1.5">
+                  {self ? (
+                    <span className="px-2" title="Your own role is changed by another admin.">
+                      {ROLE_LABELS[a.role]}
+                    </span>
+                  ) : (
                   <select
                     aria-label={`Role of ${a.email}`}
-                    className="rounded border border-line bg-panel px-2 py-1 text-sm disabled:opacity-70"
+                    className="rounded border border-muted/40 bg-surface px-2 py-1 text-sm disabled:opacity-70"
                     value={a.role}
                     disabled={locked}
-                    title={self ? 'Your own role is changed by another admin.' : undefined}
                     onChange={(e) => onRole(a, e.target.value as Role)}
                   >
                     {(['admin', 'engineer', 'operator'] as const).map((r) => (
@@ -59,6 +63,7 @@ export function UsersTable({ accounts, currentUserId, savingId, ready, onRole, o
                       </option>
                     ))}
                   </select>
+                  )}
                 </td>
                 <td className="px-4 py-2">
                   {a.disabled ? (
@@ -70,8 +75,8 @@ export function UsersTable({ accounts, currentUserId, savingId, ready, onRole, o
                 <td className="px-4 py-2 font-mono text-xs tabular-nums" title={a.createdAt}>
                   {utcMinutes(a.createdAt)}
                 </td>
-                <td className="px-4 py-2 font-mono text-xs tabular-nums text-muted" title={a.lastSignInAt ?? undefined}>
-                  {a.lastSignInAt ? utcMinutes(a.lastSignInAt) : 'never'}
+                <td className="px-4 py-2 text-xs text-muted" title={a.lastSignInAt ?? undefined}>
+                  {a.lastSignInAt ? <span className="font-mono tabular-nums">{utcMinutes(a.lastSignInAt)}</span> : 'never'}
                 </td>
                 <td className="px-4 py-1.5 text-right">
                   {!self && (

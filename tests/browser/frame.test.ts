@@ -1,0 +1,174 @@
+/**
+ * The application frame as a person uses it, in Debian's chromium against the built server:
+ * sign-in for each role, navigation by role, the 403 and 404 pages, the remembered theme,
+ * errors beside their field, sign-out and the skip link.
+ */
+import { existsSync } from 'node:fs';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import { startServer, type TestServer } from '../helpers/server';
+
+const chromiumPath = '/usr/bin/chromium';
+const hasChromium = existsSync(chromiumPath);
+if (!hasChromium) {
+  console.warn(`Skipping the browser tests: ${chromiumPath} is absent. Install it with \`apt-get install -y chromium\` (.ci/run does).`);
+}
+
+const password = 'quadrille-demo';
+const accounts = [
+  { email: 'admin@saltmarsh.test', role: 'Admin', seesAdmin: true },
+  { email: 'engineer@saltmarsh.test', role: 'Engineer', seesAdmin: false },
+  { email: 'operator@saltmarsh.test', role: 'Operator', seesAdmin: false },
+] as const;
+
+describe.skipIf(!hasChromium)('application frame in a browser', () => {
+  let server: TestServer;
+  let browser: Browser;
+  let context: BrowserContext | null = null;
+
+  beforeAll(async () => {
+    server = await startServer();
+    // launch() gives every run a fresh temporary profile (user-data dir) of its own.
+    browser = await chromium.launch({
+      executablePath: chromiumPath,
+      headless: true,
+      args: [
+        '--no-sandbox',
+        '--disable-gpu',
+        '--disable-dev-shm-usage',
+        '--disable-background-networking',
+        '--disable-component-update',
+        '--disable-sync',
+        '--no-first-run',
+      ],
+    });
+  });
+
+  afterAll(async () => {
+    await context?.close();
+    await browser?.close();
+    await server?.stop();
+  });
+
+  /** A new isolated tab (own cookies and storage) at a laptop-sized viewport. */
+  async function freshPage(): Promise<Page> {
+    await context?.close();
+    context = await browser.newContext({ viewport: { width: 1280, height: 800 }, baseURL: server.baseUrl });
+    return context.newPage();
+  }
+
+  async function signIn(page: Page, email: string, secret = password): Promise<void> {
+    await page.goto('/sign-in');
+    await page.locator('form[data-ready]').waitFor();
+    await page.getByLabel('E-mail').fill(email);
+    await page.getByLabel('Password').fill(secret);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+  }
+
+  async function sectionNames(page: Page): Promise<string[]> {
+    const names = await page.getByRole('navigation', { name: 'Sections' }).getByRole('link').allTextContents();
+    return names.map((name) => name.trim());
+  }
+
+  for (const account of accounts) {
+    it(`signs in ${account.email} and shows the navigation of the role`, async () => {
+      const page = await freshPage();
+      await signIn(page, account.email);
+      await page.waitForURL(server.baseUrl + '/');
+      const expected = account.seesAdmin ? ['Captures', 'Chains', 'Runs', 'Admin'] : ['Captures', 'Chains', 'Runs'];
+      expect(await sectionNames(page)).toEqual(expected);
+      await expect.poll(() => page.getByTestId('user-menu-button').textContent()).toContain(account.role);
+    });
+  }
+
+  it('goes on to the page asked for before signing in', async () => {
+    const page = await freshPage();
+    await page.goto('/runs');
+    expect(new URL(page.url()).pathname).toBe('/sign-in');
+    await page.locator('form[data-ready]').waitFor();
+    await page.getByLabel('E-mail').fill('engineer@saltmarsh.test');
+    await page.getByLabel('Password').fill(password);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.waitForURL(server.baseUrl + '/runs');
+    await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Runs');
+  });
+
+  it('answers an operator opening /admin with the 403 page', async () => {
+    const page = await freshPage();
+    await signIn(page, 'operator@saltmarsh.test');
+    await page.waitForURL(server.baseUrl + '/');
+    const response = await page.goto('/admin');
+    expect(response?.status()).toBe(403);
+    await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toContain("can't open the Admin pages");
+    expect(await page.getByRole('link', { name: 'Go to the overview' }).count()).toBe(1);
+  });
+
+  it('answers an unknown address with the 404 page', async () => {
+    const page = await freshPage();
+    await signIn(page, 'engineer@saltmarsh.test');
+    await page.waitForURL(server.baseUrl + '/');
+    const response = await page.goto('/no/such/page');
+    expect(response?.status()).toBe(404);
+    await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('There is no page at this address');
+  });
+
+  it('remembers the chosen theme across a reload', async () => {
+    const page = await freshPage();
+    await page.emulateMedia({ colorScheme: 'light' });
+    await signIn(page, 'engineer@saltmarsh.test');
+    await page.waitForURL(server.baseUrl + '/');
+    const surface = () => page.evaluate(() => getComputedStyle(document.body).backgroundColor);
+    const lightSurface = await surface();
+    await page.getByRole('button', { name: 'Dark theme' }).click();
+    expect(await page.evaluate(() => document.documentElement.dataset.theme)).toBe('dark');
+    await page.reload();
+    // The inline head script sets the theme before paint; the switch shows the choice once hydrated.
+    expect(await page.evaluate(() => document.documentElement.dataset.theme)).toBe('dark');
+    expect(await surface()).not.toBe(lightSurface);
+    await expect.poll(() => page.getByRole('button', { name: 'Dark theme' }).getAttribute('aria-pressed')).toBe('true');
+    await page.getByRole('button', { name: 'Follow the system theme' }).click();
+    await page.reload();
+    expect(await page.evaluate(() => document.documentElement.dataset.theme ?? null)).toBeNull();
+    expect(await surface()).toBe(lightSurface);
+  });
+
+  it('shows a wrong password error beside the password field and stays on sign-in', async () => {
+    const page = await freshPage();
+    await signIn(page, 'engineer@saltmarsh.test', 'not-the-password');
+    const error = page.locator('[data-field-error="password"]');
+    await error.waitFor();
+    expect(await error.textContent()).toMatch(/wrong/i);
+    expect(await page.getByLabel('Password').getAttribute('aria-invalid')).toBe('true');
+    expect(await page.getByLabel('Password').getAttribute('aria-describedby')).toBe(await error.getAttribute('id'));
+    expect(new URL(page.url()).pathname).toBe('/sign-in');
+  });
+
+  it('shows a missing e-mail beside the e-mail field without asking the server', async () => {
+    const page = await freshPage();
+    await page.goto('/sign-in');
+    await page.locator('form[data-ready]').waitFor();
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    expect(await page.locator('[data-field-error="email"]').textContent()).toMatch(/e-mail/i);
+  });
+
+  it('signs out from the user menu and returns to sign-in', async () => {
+    const page = await freshPage();
+    await signIn(page, 'engineer@saltmarsh.test');
+    await page.waitForURL(server.baseUrl + '/');
+    await page.getByTestId('user-menu-button').click();
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.waitForURL(server.baseUrl + '/sign-in');
+    await page.goto('/captures');
+    expect(new URL(page.url()).pathname).toBe('/sign-in');
+  });
+
+  it('offers a skip link as the first keyboard stop', async () => {
+    const page = await freshPage();
+    await signIn(page, 'engineer@saltmarsh.test');
+    await page.waitForURL(server.baseUrl + '/');
+    await page.keyboard.press('Tab');
+    expect(await page.evaluate(() => document.activeElement?.textContent?.trim())).toBe('Skip to main content');
+    await page.keyboard.press('Enter');
+    expect(await page.evaluate(() => document.activeElement?.id)).toBe('main');
+  });
+});
