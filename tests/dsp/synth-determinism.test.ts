@@ -39,7 +39,7 @@ function collect(spec: unknown, blockSizes: number[]): Float32Array {
 describe('pseudo-random generator', () => {
   test('xoshiro128** core matches the reference outputs for state (1, 2, 3, 4)', () => {
     // Outputs of D. Blackman and S. Vigna's reference xoshiro128starstar.c (v1.1) for this state
-    // (also reproduced by an independent Python transcription of the published algorithm).
+    // (also reproduced by an independent Python implementation of the published algorithm).
     const g = Xoshiro128.fromState(1, 2, 3, 4);
     const out = Array.from({ length: 10 }, () => g.nextUint32());
     expect(out).toEqual([11520, 0, 5927040, 70819200, 2031721883, 1637235492, 1287239034, 3734860849, 3729100597, 4258142804]);
