@@ -49,9 +49,13 @@ export function createS3Client(config: S3ConnectionConfig): S3Client {
 export interface S3StoreOptions {
   client: S3Client;
   bucket: string;
-  /** Multipart part size in bytes (>= 5 MiB); memory held per put is about (queueSize + 1) parts. */
+  /**
+   * Multipart part size in bytes (>= 5 MiB, default 8 MiB). The SDK's uploader assembles each
+   * part by concatenating chunks, so a put holds roughly (queueSize + 3.5) parts at its peak
+   * (measured with tests/storage/measure-put-memory.ts).
+   */
   partSize?: number;
-  /** Parts uploaded in parallel per put. */
+  /** Parts uploaded in parallel per put (default 2: keeps a put near 60 MiB; raise for long-haul links). */
   queueSize?: number;
 }
 
@@ -72,7 +76,7 @@ export class S3Store implements ObjectStore {
     this.client = options.client;
     this.bucket = options.bucket;
     this.partSize = options.partSize ?? 8 * MiB;
-    this.queueSize = options.queueSize ?? 4;
+    this.queueSize = options.queueSize ?? 2;
     if (!Number.isSafeInteger(this.partSize) || this.partSize < 5 * MiB) {
       throw new RangeError(`partSize must be at least 5 MiB (S3 minimum), got ${this.partSize} bytes`);
     }
