@@ -8,4 +8,7 @@ import { createRequire } from 'node:module';
 
 const require = createRequire(import.meta.url);
 require('tsx/cjs/api').register();
+// tsx turns on source-mapped stack traces, which makes Node parse every module's inline map at
+// load time; the CLI prints one-line errors, so keep them off unless debugging.
+if (!process.env.QUADRILLE_DEBUG) process.setSourceMapsEnabled(false);
 require('../src/cli/main.ts');
