@@ -72,6 +72,22 @@ describe('quadrille run', () => {
     expect(Math.abs(r2.probes[0].spectrum.peak.frequency - 5_000)).toBeLessThan(48_000 / 2 / r2.probes[0].spectrum.frequencies.length * 2);
   });
 
+  it('runs the benchmark chain (mix, FIR, decimate, Welch) and reports the tone at its baseband frequency', async () => {
+    // Tone at +1.30 MHz, mixed by -1.25 MHz: 50 kHz after the mix (common practice), inside the
+    // 400 kHz low-pass, so it survives decimation by 8 at 1.25 Msps.
+    writeSigmf(join(dir, 'ddc'), complexTone(1 << 18, 10e6, 1.3e6, 0.5), 10e6);
+    const out = join(dir, 'run-ddc');
+    const r = await quadrille('run', '--chain', join(__dirname, 'bench/reference-ddc.chain.json'), '--input', join(dir, 'ddc.sigmf-meta'), '--out', out);
+    expect(r.code).toBe(0);
+    const results = JSON.parse(readFileSync(join(out, 'results.json'), 'utf8'));
+    const psd = results.probes.find((p: { stageId: string }) => p.stageId === 'psd');
+    expect(psd.kind).toBe('spectrum');
+    expect(psd.spectrum.unit).toBe('dBFS/Hz');
+    expect(psd.spectrum.frequencies).toHaveLength(4096);
+    expect(Math.abs(psd.spectrum.peak.frequency - 50_000)).toBeLessThan(1.25e6 / 4096 / 2);
+    expect(results.output).toMatchObject({ datatype: 'cf32_le', sampleRate: 1.25e6, samples: (1 << 18) / 8 });
+  });
+
   it('reads a raw ci16_be file described by options', async () => {
     const tone = complexTone(30_000, 2e6, -250_000, 0.7);
     const buf = Buffer.alloc(tone.length * 2);
