@@ -2,24 +2,12 @@
  * Symmetric windows for FIR design (length N, w[0] = w[N-1]), as filter design uses them; the
  * periodic windows for spectral analysis live in src/dsp/windows.
  */
+import { besselI0 } from '../windows/bessel';
 
 /** Window names accepted by the windowed-sinc design. */
 export const DESIGN_WINDOWS = ['hamming', 'hann', 'blackman', 'blackman-harris', 'rectangular', 'kaiser'] as const;
 
 export type DesignWindow = (typeof DESIGN_WINDOWS)[number];
-
-/** Modified Bessel function of the first kind, order 0 (power series; converges for all x). */
-export function besselI0(x: number): number {
-  const q = (x * x) / 4;
-  let term = 1;
-  let sum = 1;
-  for (let k = 1; k < 500; k++) {
-    term *= q / (k * k);
-    sum += term;
-    if (term < sum * 1e-17) break;
-  }
-  return sum;
-}
 
 // Cosine-sum coefficients: w[n] = sum_k (-1)^k a_k cos(2 pi k n / (N - 1)).
 const COSINE_SUMS: Record<Exclude<DesignWindow, 'kaiser' | 'rectangular'>, number[]> = {

@@ -1,6 +1,6 @@
 /** Filter design, response and streaming filters of the DSP engine. */
 export { FILTER_RESPONSES, checkedEdges, edgeAboveNyquist, type BandEdges, type FilterResponse } from './band-edges';
-export { DESIGN_WINDOWS, designWindow, besselI0, type DesignWindow } from './design-windows';
+export { DESIGN_WINDOWS, designWindow, type DesignWindow } from './design-windows';
 export { windowedSincTaps, MAX_FIR_TAPS, type WindowedSincSpec } from './windowed-sinc';
 export { kaiserBeta, kaiserLength, kaiserDesignAttenuation, kaiserTaps, type KaiserSpec, type KaiserDesign } from './kaiser';
 export {
