@@ -1,5 +1,5 @@
 import { randomBytes } from 'node:crypto';
-import { mkdtemp, readdir, rm } from 'node:fs/promises';
+import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import S3rver from 's3rver';
@@ -51,18 +51,12 @@ async function startFakeS3() {
   };
 }
 
-/** Files of multipart uploads that were neither completed nor aborted. */
-async function openUploads(directory: string): Promise<string[]> {
-  const entries = await readdir(join(directory, BUCKET), { recursive: true }).catch(() => [] as string[]);
-  return entries.filter((name) => /(^|\/)uploads\/[0-9a-f]+\/\d+$/.test(name));
-}
-
 objectStoreContract('S3Store against s3rver', async () => {
   const fake = await startFakeS3();
   return {
     store: new S3Store({ client: fake.client, bucket: BUCKET }),
-    // s3rver does not implement AbortMultipartUpload, so its part files stay on disk; the
-    // separate test below checks that the store asks for the abort instead.
+    // s3rver answers AbortMultipartUpload with 405 and keeps the part files on its disk, so
+    // there is nothing honest to list here; the test below checks that the store sends the abort.
     strays: async () => [],
     close: fake.close,
   };
@@ -96,8 +90,6 @@ describe('S3Store multipart clean-up', () => {
       const store = new S3Store({ client: fake.client, bucket: BUCKET });
       await store.put('mp/small', chunked(randomBytes(3000)));
       expect(fake.sent).toEqual(['PutObjectCommand']);
-      // Reported so the limitation of the fake stays visible if it ever changes.
-      expect(await openUploads(fake.directory)).toEqual([]);
     } finally {
       await fake.close();
     }
