@@ -160,6 +160,7 @@ describe('NCO phase over 2^27 samples', () => {
 
   it.each([
     ['integer frequency (exact counter)', 1_234_567, 10e6],
+    ['frequency with a short period (16000-sample table)', 1_250_625, 10e6],
     ['non-integer frequency and rate (float64 chunk phase)', 1234.5678901, 1e6 / 3],
   ])('%s: the last samples match cos/sin of the exact phase', (_name, frequency, sampleRate) => {
     const phaseDeg = 33;

@@ -9,11 +9,20 @@
  * are (decimal) integers, that chunk phase is an integer counter modulo fs, so it is exact at any
  * sample index; otherwise it is a float64 cycle count wrapped into [0, 1) at every chunk, whose
  * error stays below 1e-10 cycles over 2^27 samples. Chunks are aligned on absolute sample indices,
- * so the output does not depend on how the stream is cut into blocks.
+ * so the output does not depend on how the stream is cut into blocks. When f/fs is a fraction whose
+ * period is short (e.g. -1.25 MHz at 10 MHz repeats every 8 samples), the whole period is one exact
+ * table indexed by the sample counter modulo the period.
  */
 
 const CHUNK = 1024;
 const TWO_PI = 2 * Math.PI;
+/** Longest period (samples) kept as a whole table: one complex multiply per sample instead of two. */
+const MAX_PERIOD_TABLE = 16_384;
+
+function greatestCommonDivisor(a: number, b: number): number {
+  while (b !== 0) [a, b] = [b, a % b];
+  return a;
+}
 
 /** Exact integer form of f/fs (f mod fs and fs, both scaled to integers), or null when there is none. */
 function integerRatio(frequency: number, sampleRate: number): { step: number; modulus: number } | null {
@@ -52,6 +61,11 @@ export class Nco {
   /** Index within the current chunk; CHUNK means "start a new chunk before the next sample". */
   private k = CHUNK;
   private started = false;
+  /** Whole-period tables (with the initial phase) when the period is short, else null. */
+  private readonly periodRe: Float64Array | null = null;
+  private readonly periodIm: Float64Array | null = null;
+  /** Sample counter modulo the period. */
+  private m = 0;
 
   /** Oscillator at `frequency` Hz (any sign) for a stream at `sampleRate` Hz, starting at `phaseRad` radians. */
   constructor(
@@ -71,6 +85,19 @@ export class Nco {
     }
     this.chunkCountStep = this.ratio ? (CHUNK * this.ratio.step) % this.ratio.modulus : 0;
     this.chunkCyclesStep = fraction(CHUNK * cyclesPerSample);
+    if (this.ratio) {
+      const { step, modulus } = this.ratio;
+      const period = modulus / greatestCommonDivisor(step, modulus);
+      if (period <= MAX_PERIOD_TABLE) {
+        this.periodRe = new Float64Array(period);
+        this.periodIm = new Float64Array(period);
+        for (let m = 0; m < period; m++) {
+          const angle = (TWO_PI * ((m * step) % modulus)) / modulus + phaseRad;
+          this.periodRe[m] = Math.cos(angle);
+          this.periodIm[m] = Math.sin(angle);
+        }
+      }
+    }
   }
 
   private nextChunk(): void {
@@ -94,6 +121,23 @@ export class Nco {
   /** output = input * oscillator for interleaved complex blocks; output may be the input array. */
   mixComplex(input: Float32Array, output: Float32Array): void {
     const samples = input.length >> 1;
+    if (this.periodRe && this.periodIm) {
+      const pRe = this.periodRe;
+      const pIm = this.periodIm;
+      const period = pRe.length;
+      let m = this.m;
+      for (let n = 0; n < samples; n++) {
+        const cRe = pRe[m];
+        const cIm = pIm[m];
+        const xRe = input[2 * n];
+        const xIm = input[2 * n + 1];
+        output[2 * n] = xRe * cRe - xIm * cIm;
+        output[2 * n + 1] = xRe * cIm + xIm * cRe;
+        if (++m === period) m = 0;
+      }
+      this.m = m;
+      return;
+    }
     const tRe = this.tableRe;
     const tIm = this.tableIm;
     let n = 0;
@@ -118,6 +162,20 @@ export class Nco {
   /** output (interleaved complex, 2 values per input value) = real input * oscillator. */
   mixReal(input: Float32Array, output: Float32Array): void {
     const samples = input.length;
+    if (this.periodRe && this.periodIm) {
+      const pRe = this.periodRe;
+      const pIm = this.periodIm;
+      const period = pRe.length;
+      let m = this.m;
+      for (let n = 0; n < samples; n++) {
+        const x = input[n];
+        output[2 * n] = x * pRe[m];
+        output[2 * n + 1] = x * pIm[m];
+        if (++m === period) m = 0;
+      }
+      this.m = m;
+      return;
+    }
     const tRe = this.tableRe;
     const tIm = this.tableIm;
     let n = 0;
