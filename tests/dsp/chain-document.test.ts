@@ -62,6 +62,23 @@ describe('parseChainDocument', () => {
     ]);
   });
 
+  it('words a filter parameter error as the chain format describes it, and catches a misspelt kind', () => {
+    expect(
+      messages({
+        version: 1,
+        stages: [
+          { id: 'a', kind: 'mix' },
+          { id: 'b', kind: 'gain' },
+          { id: 'lp', kind: 'filter', params: { design: 'window', cutoff: -5 } },
+          { id: 'lp2', kind: 'fliter' },
+        ],
+      }),
+    ).toEqual([
+      'stages[2] (id "lp", filter): cutoff: must be > 0 Hz',
+      expect.stringMatching(/^stages\[3\] \(id "lp2", fliter\): kind: unknown stage kind "fliter" \(known: .*\); did you mean "filter"\?$/),
+    ]);
+  });
+
   it('reports a duplicate stage id with the stage that used it first', () => {
     const result = parseChainDocument({ version: 1, stages: [{ id: 'a', kind: 'gain' }, { id: 'b', kind: 'trim' }, { id: 'a', kind: 'mix' }] });
     expect(result.ok).toBe(false);
