@@ -41,12 +41,16 @@ export class LocalFileStore implements ObjectStore {
     // `flush` fsyncs before close: the rename must not publish a file whose data is still only
     // in the page cache. 'wx' refuses to reuse a stray temporary name.
     const file = createWriteStream(temp, { flags: 'wx', flush: true, highWaterMark: 1 << 20 });
+    let published = false;
     try {
       await pipeline(toReadable(source), meter, file, signal ? { signal } : {});
       await rename(temp, target);
+      published = true;
       await syncFolder(folder);
       return { key, ...meter.result() };
     } catch (error) {
+      // A rename whose folder entry could not be made durable is not a completed put either.
+      if (published) await rm(target, { force: true });
       // Wait for the descriptor to close: removing the name while the open is still pending
       // would let the open create the file again afterwards.
       file.destroy();
