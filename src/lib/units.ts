@@ -173,3 +173,74 @@ function pad2(n: number): string {
 function clamp(n: number, lo: number, hi: number): number {
   return Math.min(hi, Math.max(lo, n));
 }
+
+/** Outcome of {@link parseQuantity}: the value in the base unit, or what is wrong with the text. */
+export type ParsedQuantity = { ok: true; value: number } | { ok: false; message: string };
+
+/** Options for {@link parseQuantity}. */
+export interface ParseQuantityOptions {
+  /** Other spellings of the unit that are accepted, e.g. ['sps', 'S/s'] for a sample rate in Hz. */
+  aliases?: string[];
+}
+
+// Powers of ten of the prefixes a person may type. `u` stands in for micro on keyboards without
+// µ, and `K` is the common misspelling of kilo (no unit here is the kelvin).
+const TYPED_PREFIXES: Record<string, number> = {
+  f: -15, p: -12, n: -9, u: -6, 'µ': -6, 'μ': -6, m: -3, k: 3, K: 3, M: 6, G: 9, T: 12, P: 15,
+};
+const NUMBER_PATTERN = /^([+-]?(?:\d+(?:\.\d*)?|\.\d+))(?:[eE]([+-]?\d+))?\s*(.*)$/;
+const GROUPED_THOUSANDS = /^([+-]?\d{1,3}(?:,\d{3})+)(?=$|[.\seE\p{L}])/u;
+
+/**
+ * Parse a quantity typed by a person into the base unit: `parseQuantity('4M', 'Hz')` and
+ * `parseQuantity('4 MHz', 'Hz')` give 4e6, `parseQuantity('-3 dB', 'dB')` gives -3,
+ * `parseQuantity('250u', 's')` gives 250e-6. Prefixes follow SI (m is milli, M is mega); log
+ * units (dB...) and plain counts take no prefix. The unit itself may be left out.
+ */
+export function parseQuantity(text: string, unit: string, options: ParseQuantityOptions = {}): ParsedQuantity {
+  const trimmed = String(text ?? '').trim();
+  if (trimmed === '') return { ok: false, message: `is empty: enter a number${unit ? `, e.g. ${example(unit)}` : ''}` };
+  // "4,000,000" reads unambiguously as grouped thousands; any other comma is probably a decimal comma.
+  const ungrouped = trimmed.replace(GROUPED_THOUSANDS, (grouped) => grouped.replace(/,/g, ''));
+  if (/^[+-]?\d*,\d/.test(ungrouped)) return { ok: false, message: `"${trimmed}" uses a decimal comma: write a point, e.g. ${example(unit)}` };
+  const match = NUMBER_PATTERN.exec(ungrouped);
+  if (!match) {
+    return { ok: false, message: `"${trimmed}" is not a number${unit ? `, e.g. ${example(unit)}` : ''}` };
+  }
+  const [, mantissa, exponentText, suffix] = match;
+  const exponent = exponentText ? Number(exponentText) : 0;
+  const prefixPower = suffixPower(suffix, unit, options.aliases ?? []);
+  if (prefixPower === null) {
+    const expected = unit ? `expected ${acceptsPrefix(unit) ? `${unit} with an optional SI prefix` : unit}` : 'expected a plain number';
+    return { ok: false, message: `"${suffix}" is not a unit this field takes (${expected}, e.g. ${example(unit)})` };
+  }
+  // Shifting the decimal exponent in text keeps typed decimals exact: 0.1 MHz is 100000, not 100000.00000000001.
+  const value = Number(`${mantissa}e${exponent + prefixPower}`);
+  if (!Number.isFinite(value)) return { ok: false, message: `"${trimmed}" is too large` };
+  return { ok: true, value: Object.is(value, -0) ? 0 : value };
+}
+
+/** Power of ten of the suffix after the number (0 for none or the bare unit), or null when it is not one. */
+function suffixPower(suffix: string, unit: string, aliases: string[]): number | null {
+  if (suffix === '') return 0;
+  const spellings = [unit, ...aliases].filter(Boolean).map((s) => s.toLowerCase());
+  if (spellings.includes(suffix.toLowerCase())) return 0;
+  if (!acceptsPrefix(unit)) return null;
+  const power = TYPED_PREFIXES[suffix[0]];
+  if (power === undefined) return null;
+  const rest = suffix.slice(1).trim();
+  if (rest === '' || spellings.includes(rest.toLowerCase())) return power;
+  return null;
+}
+
+/** Whether a unit takes SI prefixes when typed (Hz, s, V, FS...), as opposed to dB, degrees or counts. */
+function acceptsPrefix(unit: string): boolean {
+  return !isLogUnit(unit) && !UNPREFIXED.has(unit) && unit !== 'symbols';
+}
+
+function example(unit: string): string {
+  if (!unit) return '0.5';
+  if (isLogUnit(unit)) return `-3 ${unit}`;
+  if (!acceptsPrefix(unit)) return `12 ${unit}`;
+  return unit === 's' ? '250 ms' : `4 M${unit}`;
+}
