@@ -9,6 +9,7 @@ import { valuesPerSample, type StageDefinition, type StageProcessor } from '../t
 import { BlockBuffer } from './block-buffer';
 import { createHeadEstimatingProcessor } from './head-estimate';
 
+/** Parameters of dc-remove: method, blocker pole (0.9..0.999999), estimateSamples [samples]. */
 export const dcRemoveSchema = z
   .object({
     method: z.enum(['mean', 'blocker']).default('mean'),

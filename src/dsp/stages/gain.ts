@@ -10,6 +10,7 @@ import { BlockBuffer } from './block-buffer';
 import { createHeadEstimatingProcessor } from './head-estimate';
 import { amplitudeFromDb, dbFromAmplitude } from './levels';
 
+/** Parameters of gain: mode, gainDb [dB] (fixed), targetDb [dBFS] and estimateSamples [samples] (rms, peak). */
 export const gainSchema = z
   .object({
     mode: z.enum(['fixed', 'rms', 'peak']).default('fixed'),

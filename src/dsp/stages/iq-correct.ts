@@ -14,6 +14,7 @@ import { BlockBuffer } from './block-buffer';
 import { createHeadEstimatingProcessor } from './head-estimate';
 import { amplitudeFromDb, radiansFromDegrees } from './levels';
 
+/** Parameters of iq-correct: mode, gainDb [dB] and phaseDeg [deg] (manual), estimateSamples [samples] (blind). */
 export const iqCorrectSchema = z
   .object({
     mode: z.enum(['blind', 'manual']).default('blind'),

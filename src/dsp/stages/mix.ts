@@ -8,6 +8,7 @@ import { BlockBuffer } from './block-buffer';
 import { radiansFromDegrees } from './levels';
 import { Nco } from './nco';
 
+/** Parameters of mix: frequency [Hz] (shift, any sign), phase [deg] at the first sample. */
 export const mixSchema = z
   .object({
     frequency: z.number().finite().min(-1e12).max(1e12).default(0),

@@ -8,6 +8,7 @@ import { z } from 'zod';
 import type { StageDefinition } from '../types';
 import { BlockBuffer } from './block-buffer';
 
+/** Parameters of quadrature-combine: sign convention and channel swap. */
 export const quadratureCombineSchema = z
   .object({
     convention: z.enum(['i-plus-jq', 'i-minus-jq']).default('i-plus-jq'),

@@ -11,6 +11,7 @@ import { BlockBuffer } from './block-buffer';
 import { radiansFromDegrees } from './levels';
 import { Nco } from './nco';
 
+/** Parameters of quadrature-mix: loFrequency [Hz], phase [deg], sign convention. */
 export const quadratureMixSchema = z
   .object({
     loFrequency: z.number().finite().min(0).max(1e12).default(0),

@@ -7,6 +7,7 @@ import { z } from 'zod';
 import { valuesPerSample, type ChainIssue, type StageDefinition } from '../types';
 import { EMPTY_BLOCK } from './block-buffer';
 
+/** Parameters of trim: start [s] and duration [s] (0 = to the end). */
 export const trimSchema = z
   .object({
     start: z.number().finite().min(0).max(1e7).default(0),
