@@ -7,6 +7,7 @@ import type { SampleType } from '../types';
 import { valuesPerSample } from '../types';
 import { FormatError, type ValueEncoding } from './datatype';
 import { canViewNatively, encodeValues } from './value-codec';
+import { allFinite } from './sample-decoder';
 
 export interface SampleEncoderOptions {
   /**
@@ -73,9 +74,7 @@ export class SampleEncoder {
   }
 
   private assertFinite(values: Float32Array): void {
-    let bad = 0;
-    for (let k = 0; k < values.length; k++) bad += values[k] - values[k];
-    if (bad === 0) return;
+    if (allFinite(values)) return;
     for (let k = 0; k < values.length; k++) {
       if (!Number.isFinite(values[k])) {
         const index = this.samples + Math.floor(k / this.valuesPerSample);
