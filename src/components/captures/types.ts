@@ -1,0 +1,91 @@
+/**
+ * Shapes of the captures API as the browser sees them (the contract in the captures plan), and
+ * small readers of the SigMF annotation objects a capture carries.
+ */
+import type { SampleType } from '@/dsp/types';
+
+/** A capture as the API presents it. */
+export interface Capture {
+  id: string;
+  name: string;
+  owner: { id: string; name: string };
+  visibility: 'private' | 'team';
+  /** Samples per second (Hz). */
+  sampleRate: number;
+  /** RF frequency (Hz) of 0 Hz in the capture, or null when unknown. */
+  centerFrequency: number | null;
+  /** SigMF datatype string, e.g. ci16_le. */
+  datatype: string;
+  layout: SampleType;
+  sampleCount: number;
+  byteSize: number;
+  bytesPerSample: number;
+  durationSeconds: number;
+  sha256: string;
+  source: 'uploaded' | 'synthesized';
+  synthSpec: unknown | null;
+  notes: string;
+  tags: string[];
+  /** SigMF annotation objects (`core:sample_start`, `core:label`...). */
+  annotations: Record<string, unknown>[];
+  createdAt: string;
+  permissions: { update: boolean; delete: boolean };
+}
+
+/** Storage used against the quota (bytes). */
+export interface StorageUsage {
+  storedBytes: number;
+  quotaBytes: number;
+  largestCaptureBytes: number;
+  captureCount: number;
+}
+
+/** One page of the captures list. */
+export interface CaptureList {
+  items: Capture[];
+  total: number;
+  page: number;
+  pageSize: number;
+  usage: StorageUsage;
+}
+
+/** A SigMF annotation read into numbers (samples, Hz), whatever spelling the object used. */
+export interface Annotation {
+  sampleStart: number;
+  sampleCount: number | null;
+  freqLowerEdge: number | null;
+  freqUpperEdge: number | null;
+  label: string;
+  comment: string;
+}
+
+function pick(object: Record<string, unknown>, ...keys: string[]): unknown {
+  for (const key of keys) if (object[key] !== undefined && object[key] !== null) return object[key];
+  return undefined;
+}
+
+function numberOrNull(value: unknown): number | null {
+  return typeof value === 'number' && Number.isFinite(value) ? value : null;
+}
+
+/** Reads SigMF annotation objects (core: keys, or the camel-case spelling of the formats code). */
+export function readAnnotations(raw: unknown): Annotation[] {
+  if (!Array.isArray(raw)) return [];
+  return raw
+    .filter((a): a is Record<string, unknown> => typeof a === 'object' && a !== null)
+    .map((a) => ({
+      sampleStart: numberOrNull(pick(a, 'core:sample_start', 'sampleStart')) ?? 0,
+      sampleCount: numberOrNull(pick(a, 'core:sample_count', 'sampleCount')),
+      freqLowerEdge: numberOrNull(pick(a, 'core:freq_lower_edge', 'freqLowerEdge')),
+      freqUpperEdge: numberOrNull(pick(a, 'core:freq_upper_edge', 'freqUpperEdge')),
+      label: String(pick(a, 'core:label', 'label') ?? ''),
+      comment: String(pick(a, 'core:comment', 'comment') ?? ''),
+    }));
+}
+
+/** Human label of a channel layout. */
+export const LAYOUT_LABELS: Record<SampleType, string> = {
+  complex: 'Complex I/Q',
+  real: 'Real IF',
+  'real-pair': 'Two real channels',
+};
