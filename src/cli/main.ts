@@ -11,6 +11,10 @@ import type { CaptureOptions } from './capture-source';
 import { formatInspectReport, inspectCapture } from './inspect-command';
 import { runCommand } from './run-command';
 
+/** Milliseconds from process start until every module was loaded (QUADRILLE_TIMING=1 prints it). */
+const MODULES_LOADED_MS = performance.now();
+const MODULES_LOADED_CPU = process.cpuUsage();
+
 const HELP = `Quadrille command line: run processing chains on radio captures.
 
 Usage:
@@ -130,6 +134,10 @@ function describeError(error: unknown): string {
 
 main(process.argv.slice(2)).then(
   (code) => {
+    if (process.env.QUADRILLE_TIMING) {
+      const cpu = process.cpuUsage();
+      process.stderr.write(`timing: start-up and module loading ${MODULES_LOADED_MS.toFixed(0)} ms (CPU ${((MODULES_LOADED_CPU.user + MODULES_LOADED_CPU.system) / 1000).toFixed(0)} ms), total ${performance.now().toFixed(0)} ms, CPU ${((cpu.user + cpu.system) / 1000).toFixed(0)} ms\n`);
+    }
     process.exitCode = code;
   },
   (error: unknown) => {

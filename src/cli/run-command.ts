@@ -71,6 +71,7 @@ export async function runCommand(options: RunCommandOptions, signal?: AbortSigna
     });
     progress.done();
     const seconds = (performance.now() - started) / 1000;
+    const committing = performance.now();
     const outputDatatype = RunOutput.datatypeFor(run.outputFormat);
     const results = buildResults({ engineVersion: ENGINE_VERSION, chainPath: resolve(options.chain), doc, capture, run, outputDatatype, seconds });
     output.commit(
@@ -82,6 +83,9 @@ export async function runCommand(options: RunCommandOptions, signal?: AbortSigna
     );
     for (const issue of run.issues) {
       if (!planned.some((p) => p.message === issue.message)) progress.note(`${issue.severity}: ${issue.message}`);
+    }
+    if (process.env.QUADRILLE_TIMING) {
+      process.stderr.write(`timing: run ${(seconds * 1000).toFixed(0)} ms, writing results ${(performance.now() - committing).toFixed(0)} ms\n`);
     }
     progress.note(`done in ${seconds.toFixed(2)} s: ${run.samplesOut} output samples, ${run.probes.length} probe(s) -> ${options.out}`);
   } catch (error) {
