@@ -3,6 +3,9 @@ import { Field, FormMessage } from './forms/Field';
 import { requestJson } from './forms/api';
 import { buttonPrimary } from './ui';
 
+// The server's rule for new passwords; checked here too so the message comes before a round trip.
+const MIN_PASSWORD = 10;
+
 type FieldName = 'currentPassword' | 'newPassword' | 'confirmPassword';
 
 /** Change-password form: posts to /api/account/password and shows each error beside its field. */
@@ -27,6 +30,7 @@ export default function ChangePasswordForm() {
     const found: Partial<Record<FieldName, string>> = {};
     if (!values.currentPassword) found.currentPassword = 'Enter your current password.';
     if (!values.newPassword) found.newPassword = 'Enter a new password.';
+    else if (values.newPassword.length < MIN_PASSWORD) found.newPassword = `Use at least ${MIN_PASSWORD} characters.`;
     else if (values.newPassword === values.currentPassword) found.newPassword = 'The new password is the same as the current one.';
     if (values.newPassword && values.confirmPassword !== values.newPassword) found.confirmPassword = 'This does not match the new password.';
     setErrors(found);

@@ -14,6 +14,21 @@ if (!hasChromium) {
   console.warn(`Skipping the browser tests: ${chromiumPath} is absent. Install it with \`apt-get install -y chromium\` (.ci/run does).`);
 }
 
+// launch() gives every run a fresh temporary profile (user-data dir) of its own.
+const launchOptions = {
+  executablePath: chromiumPath,
+  headless: true,
+  args: [
+    '--no-sandbox',
+    '--disable-gpu',
+    '--disable-dev-shm-usage',
+    '--disable-background-networking',
+    '--disable-component-update',
+    '--disable-sync',
+    '--no-first-run',
+  ],
+};
+
 const password = 'quadrille-demo';
 const accounts = [
   { email: 'admin@saltmarsh.test', role: 'Admin', seesAdmin: true },
@@ -21,27 +36,15 @@ const accounts = [
   { email: 'operator@saltmarsh.test', role: 'Operator', seesAdmin: false },
 ] as const;
 
-describe.skipIf(!hasChromium)('application frame in a browser', () => {
+// A loaded two-core machine can take several seconds per sign-in (argon2 and a cold page).
+describe.skipIf(!hasChromium)('application frame in a browser', { timeout: 60_000 }, () => {
   let server: TestServer;
   let browser: Browser;
   let context: BrowserContext | null = null;
 
   beforeAll(async () => {
     server = await startServer();
-    // launch() gives every run a fresh temporary profile (user-data dir) of its own.
-    browser = await chromium.launch({
-      executablePath: chromiumPath,
-      headless: true,
-      args: [
-        '--no-sandbox',
-        '--disable-gpu',
-        '--disable-dev-shm-usage',
-        '--disable-background-networking',
-        '--disable-component-update',
-        '--disable-sync',
-        '--no-first-run',
-      ],
-    });
+    browser = await chromium.launch(launchOptions);
   });
 
   afterAll(async () => {
@@ -50,10 +53,15 @@ describe.skipIf(!hasChromium)('application frame in a browser', () => {
     await server?.stop();
   });
 
-  /** A new isolated tab (own cookies and storage) at a laptop-sized viewport. */
-  async function freshPage(): Promise<Page> {
+  // Cookies of each account once signed in through the form, so later tests skip the argon2 wait.
+  const signedIn = new Map<string, Awaited<ReturnType<BrowserContext['storageState']>>>();
+
+  /** A new isolated tab (own cookies and storage) at a laptop-sized viewport, signed in as `email` if given. */
+  async function freshPage(email?: string): Promise<Page> {
     await context?.close();
-    context = await browser.newContext({ viewport: { width: 1280, height: 800 }, baseURL: server.baseUrl });
+    const storageState = email ? signedIn.get(email) : undefined;
+    if (email && !storageState) throw new Error(`${email} has not signed in through the form yet`);
+    context = await browser.newContext({ viewport: { width: 1280, height: 800 }, baseURL: server.baseUrl, storageState });
     return context.newPage();
   }
 
@@ -63,6 +71,11 @@ describe.skipIf(!hasChromium)('application frame in a browser', () => {
     await page.getByLabel('E-mail').fill(email);
     await page.getByLabel('Password').fill(secret);
     await page.getByRole('button', { name: 'Sign in' }).click();
+  }
+
+  /** Waits until every island on the page has hydrated (Astro drops the `ssr` attribute then). */
+  async function hydrated(page: Page): Promise<void> {
+    await page.waitForFunction(() => document.querySelector('astro-island[ssr]') === null);
   }
 
   async function sectionNames(page: Page): Promise<string[]> {
@@ -78,6 +91,7 @@ describe.skipIf(!hasChromium)('application frame in a browser', () => {
       const expected = account.seesAdmin ? ['Captures', 'Chains', 'Runs', 'Admin'] : ['Captures', 'Chains', 'Runs'];
       expect(await sectionNames(page)).toEqual(expected);
       await expect.poll(() => page.getByTestId('user-menu-button').textContent()).toContain(account.role);
+      signedIn.set(account.email, await context!.storageState());
     });
   }
 
@@ -94,9 +108,7 @@ describe.skipIf(!hasChromium)('application frame in a browser', () => {
   });
 
   it('answers an operator opening /admin with the 403 page', async () => {
-    const page = await freshPage();
-    await signIn(page, 'operator@saltmarsh.test');
-    await page.waitForURL(server.baseUrl + '/');
+    const page = await freshPage('operator@saltmarsh.test');
     const response = await page.goto('/admin');
     expect(response?.status()).toBe(403);
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toContain("can't open the Admin pages");
@@ -104,24 +116,23 @@ describe.skipIf(!hasChromium)('application frame in a browser', () => {
   });
 
   it('answers an unknown address with the 404 page', async () => {
-    const page = await freshPage();
-    await signIn(page, 'engineer@saltmarsh.test');
-    await page.waitForURL(server.baseUrl + '/');
+    const page = await freshPage('engineer@saltmarsh.test');
     const response = await page.goto('/no/such/page');
     expect(response?.status()).toBe(404);
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('There is no page at this address');
   });
 
   it('remembers the chosen theme across a reload', async () => {
-    const page = await freshPage();
+    const page = await freshPage('engineer@saltmarsh.test');
     await page.emulateMedia({ colorScheme: 'light' });
-    await signIn(page, 'engineer@saltmarsh.test');
-    await page.waitForURL(server.baseUrl + '/');
+    await page.goto('/');
     const surface = () => page.evaluate(() => getComputedStyle(document.body).backgroundColor);
     const lightSurface = await surface();
+    await hydrated(page);
     await page.getByRole('button', { name: 'Dark theme' }).click();
     expect(await page.evaluate(() => document.documentElement.dataset.theme)).toBe('dark');
     await page.reload();
+    await hydrated(page);
     // The inline head script sets the theme before paint; the switch shows the choice once hydrated.
     expect(await page.evaluate(() => document.documentElement.dataset.theme)).toBe('dark');
     expect(await surface()).not.toBe(lightSurface);
@@ -155,6 +166,7 @@ describe.skipIf(!hasChromium)('application frame in a browser', () => {
     const page = await freshPage();
     await signIn(page, 'engineer@saltmarsh.test');
     await page.waitForURL(server.baseUrl + '/');
+    await hydrated(page);
     await page.getByTestId('user-menu-button').click();
     await page.getByRole('button', { name: 'Sign out' }).click();
     await page.waitForURL(server.baseUrl + '/sign-in');
@@ -163,12 +175,45 @@ describe.skipIf(!hasChromium)('application frame in a browser', () => {
   });
 
   it('offers a skip link as the first keyboard stop', async () => {
-    const page = await freshPage();
-    await signIn(page, 'engineer@saltmarsh.test');
-    await page.waitForURL(server.baseUrl + '/');
+    const page = await freshPage('engineer@saltmarsh.test');
+    await page.goto('/');
     await page.keyboard.press('Tab');
     expect(await page.evaluate(() => document.activeElement?.textContent?.trim())).toBe('Skip to main content');
     await page.keyboard.press('Enter');
     expect(await page.evaluate(() => document.activeElement?.id)).toBe('main');
+  });
+});
+
+describe.skipIf(!hasChromium)('first run without demo accounts', { timeout: 60_000 }, () => {
+  let server: TestServer;
+  let browser: Browser;
+
+  beforeAll(async () => {
+    server = await startServer({ demo: false });
+    browser = await chromium.launch(launchOptions);
+  });
+
+  afterAll(async () => {
+    await browser?.close();
+    await server?.stop();
+  });
+
+  it('offers to create the admin account on the sign-in page and signs it in', async () => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, baseURL: server.baseUrl });
+    const page = await context.newPage();
+    await page.goto('/');
+    expect(new URL(page.url()).pathname).toBe('/sign-in');
+    await page.locator('form[data-ready]').waitFor();
+    await page.getByLabel('E-mail').fill('first.admin@saltmarsh.test');
+    await page.getByLabel('Name').fill('Odile Brandt');
+    await page.getByLabel('Password').fill('short');
+    await page.getByRole('button', { name: 'Create the admin account' }).click();
+    expect(await page.locator('[data-field-error="password"]').textContent()).toMatch(/10 characters/);
+    await page.getByLabel('Password').fill('a-long-enough-password');
+    await page.getByRole('button', { name: 'Create the admin account' }).click();
+    await page.waitForURL(server.baseUrl + '/');
+    const names = await page.getByRole('navigation', { name: 'Sections' }).getByRole('link').allTextContents();
+    expect(names.map((name) => name.trim())).toContain('Admin');
+    await context.close();
   });
 });

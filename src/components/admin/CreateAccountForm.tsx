@@ -8,6 +8,9 @@ import { buttonPrimary, input as inputClass, label as labelClass } from '../ui';
 type FieldName = 'email' | 'name' | 'role' | 'password';
 type Role = PresentedAccount['role'];
 
+// The server's rule for new passwords; checked here too so the message comes before a round trip.
+const MIN_PASSWORD = 10;
+
 const EMPTY = { email: '', name: '', role: 'engineer' as Role, password: '' };
 
 /** Form to create an account; calls back with the created account so the table can show it. */
@@ -26,6 +29,7 @@ export function CreateAccountForm({ onCreated, ready }: { onCreated: (account: P
     if (!values.email.trim()) found.email = 'Enter the e-mail address of the new account.';
     if (!values.name.trim()) found.name = 'Enter the name people will see.';
     if (!values.password) found.password = 'Enter a first password to hand over.';
+    else if (values.password.length < MIN_PASSWORD) found.password = `Use at least ${MIN_PASSWORD} characters.`;
     setErrors(found);
     if (Object.keys(found).length > 0) return;
 
@@ -90,7 +94,7 @@ export function CreateAccountForm({ onCreated, ready }: { onCreated: (account: P
         value={values.password}
         onChange={set('password')}
         error={errors.password}
-        hint="The new user signs in with it and can change it on their Account page."
+        hint={`At least ${MIN_PASSWORD} characters. The new user signs in with it and can change it on their Account page.`}
       />
       <button type="submit" className={buttonPrimary} disabled={busy || !ready}>
         {busy ? 'Creating…' : 'Create account'}

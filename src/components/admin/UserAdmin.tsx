@@ -48,7 +48,7 @@ export default function UserAdmin({ initialAccounts, currentUserId }: UserAdminP
   }
 
   return (
-    <div className="grid gap-8 xl:grid-cols-[minmax(0,1fr)_22rem]">
+    <div className="grid items-start gap-8 2xl:grid-cols-[minmax(0,1fr)_24rem]">
       <section aria-labelledby="accounts-title" className="min-w-0 space-y-3">
         <div className="flex items-baseline justify-between">
           <h2 id="accounts-title" className="text-lg font-semibold">
@@ -62,7 +62,7 @@ export default function UserAdmin({ initialAccounts, currentUserId }: UserAdminP
         <div aria-live="polite">{message && <FormMessage tone={message.tone}>{message.text}</FormMessage>}</div>
         <UsersTable accounts={accounts} currentUserId={currentUserId} savingId={savingId} ready={ready} onRole={onRole} onDisabled={onDisabled} />
       </section>
-      <section aria-labelledby="create-title" className="h-fit rounded-lg border border-line bg-panel p-5">
+      <section aria-labelledby="create-title" className="max-w-xl rounded-lg border border-line bg-panel p-5">
         <h2 id="create-title" className="mb-4 text-lg font-semibold">
           Create an account
         </h2>

@@ -22,13 +22,13 @@ export function UsersTable({ accounts, currentUserId, savingId, ready, onRole, o
         <caption className="sr-only">Accounts</caption>
         <thead className="border-b border-line text-left text-xs uppercase tracking-wide text-muted">
           <tr>
-            <th scope="col" className="px-4 py-2 font-medium">E-mail</th>
-            <th scope="col" className="px-4 py-2 font-medium">Name</th>
-            <th scope="col" className="px-4 py-2 font-medium">Role</th>
-            <th scope="col" className="px-4 py-2 font-medium">Status</th>
-            <th scope="col" className="px-4 py-2 font-medium">Created (UTC)</th>
-            <th scope="col" className="px-4 py-2 font-medium">Last sign-in (UTC)</th>
-            <th scope="col" className="px-4 py-2 font-medium">
+            <th scope="col" className="px-3 py-2 font-medium">E-mail</th>
+            <th scope="col" className="px-3 py-2 font-medium">Name</th>
+            <th scope="col" className="px-3 py-2 font-medium">Role</th>
+            <th scope="col" className="px-3 py-2 font-medium">Status</th>
+            <th scope="col" className="px-3 py-2 font-medium">Created (UTC)</th>
+            <th scope="col" className="px-3 py-2 font-medium">Last sign-in (UTC)</th>
+            <th scope="col" className="px-3 py-2 font-medium">
               <span className="sr-only">Actions</span>
             </th>
           </tr>
@@ -39,12 +39,12 @@ export function UsersTable({ accounts, currentUserId, savingId, ready, onRole, o
             const locked = self || savingId === a.id || !ready;
             return (
               <tr key={a.id} className="border-b border-line last:border-b-0" data-email={a.email}>
-                <td className="px-4 py-2">
+                <td className="px-3 py-2">
                   {a.email}
                   {self && <span className="ml-2 rounded bg-accent/15 px-1.5 py-0.5 text-xs text-accent">you</span>}
                 </td>
-                <td className="px-4 py-2">{a.name}</td>
-                <td className="px-4 py-1.5">
+                <td className="px-3 py-2">{a.name}</td>
+                <td className="px-3 py-1.5">
                   {self ? (
                     <span className="px-2" title="Your own role is changed by another admin.">
                       {ROLE_LABELS[a.role]}
@@ -65,20 +65,20 @@ export function UsersTable({ accounts, currentUserId, savingId, ready, onRole, o
                   </select>
                   )}
                 </td>
-                <td className="px-4 py-2">
+                <td className="px-3 py-2">
                   {a.disabled ? (
                     <span className="rounded bg-danger/10 px-1.5 py-0.5 text-xs font-medium text-danger">Disabled</span>
                   ) : (
                     <span className="rounded bg-ok/10 px-1.5 py-0.5 text-xs font-medium text-ok">Active</span>
                   )}
                 </td>
-                <td className="px-4 py-2 font-mono text-xs tabular-nums" title={a.createdAt}>
+                <td className="px-3 py-2 font-mono text-xs tabular-nums" title={a.createdAt}>
                   {utcMinutes(a.createdAt)}
                 </td>
-                <td className="px-4 py-2 text-xs text-muted" title={a.lastSignInAt ?? undefined}>
+                <td className="px-3 py-2 text-xs text-muted" title={a.lastSignInAt ?? undefined}>
                   {a.lastSignInAt ? <span className="font-mono tabular-nums">{utcMinutes(a.lastSignInAt)}</span> : 'never'}
                 </td>
-                <td className="px-4 py-1.5 text-right">
+                <td className="px-3 py-1.5 text-right">
                   {!self && (
                     <button type="button" className={buttonSmall} disabled={locked} onClick={() => onDisabled(a, !a.disabled)}>
                       {a.disabled ? 'Enable' : 'Disable'}

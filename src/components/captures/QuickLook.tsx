@@ -1,0 +1,128 @@
+import { useMemo } from 'react';
+import Plot, { PlotPlaceholder } from '../plots/Plot';
+import { usePlotTheme } from '../plots/plot-theme';
+import { Quantity } from '../Quantity';
+import { AnnotationsList } from './AnnotationsList';
+import { BalanceReport } from './BalanceReport';
+import { spectrogramFigure, spectrumFigure, traceFigure } from './quicklook-figures';
+import { readAnnotations, type Capture } from './types';
+import { useQuickLook } from './useQuickLook';
+import { formatQuantity } from '@/lib/units';
+
+export interface QuickLookProps {
+  capture: Pick<Capture, 'id' | 'datatype' | 'layout' | 'sampleRate' | 'sampleCount' | 'bytesPerSample' | 'centerFrequency' | 'annotations' | 'durationSeconds'>;
+}
+
+const PLOT_HEIGHT = 300;
+
+/**
+ * Quick look of a capture, computed in the browser by the engine on the head of the capture:
+ * spectrum, spectrogram with annotations, I and Q against time, balance report.
+ * Client only: Plotly and the Web Worker need a browser.
+ */
+export default function QuickLook({ capture }: QuickLookProps) {
+  const state = useQuickLook(capture);
+  const theme = usePlotTheme();
+  const annotations = useMemo(() => readAnnotations(capture.annotations), [capture.annotations]);
+  const result = state.phase === 'done' ? state.result : null;
+  const figures = useMemo(() => {
+    if (!result) return null;
+    return {
+      spectrum: spectrumFigure(result, capture.centerFrequency, theme),
+      spectrogram: spectrogramFigure(result, capture.centerFrequency, annotations, theme),
+      trace: traceFigure(result, capture.layout, theme),
+    };
+  }, [result, capture.centerFrequency, capture.layout, annotations, theme]);
+
+  const headDuration = state.headSamples / capture.sampleRate;
+  const whole = state.headSamples >= capture.sampleCount;
+  const pending = state.phase === 'reading' ? 'Reading the head of the capture…' : 'Analysing in the background…';
+
+  return (
+    <section aria-labelledby="quicklook-title" className="space-y-4" data-testid="quick-look" data-phase={state.phase}>
+      <div className="flex flex-wrap items-baseline justify-between gap-x-6 gap-y-1">
+        <h2 id="quicklook-title" className="text-lg font-semibold">
+          Quick look
+        </h2>
+        <p className="text-sm text-muted" data-testid="quick-look-label">
+          {whole ? 'Quick look of all ' : 'Quick look of the first '}
+          <span className="font-mono text-ink">{state.headSamples.toLocaleString('en')}</span> samples (
+          <Quantity value={headDuration} unit="s" />)
+          {!whole && (
+            <>
+              {' '}of <span className="font-mono">{capture.sampleCount.toLocaleString('en')}</span> (<Quantity value={capture.durationSeconds} unit="s" />
+              ), computed in your browser; a run covers the whole capture
+            </>
+          )}
+          .
+        </p>
+      </div>
+
+      {state.phase === 'failed' && (
+        <p role="alert" className="rounded-md border border-danger/40 bg-danger/10 px-3 py-2 text-sm text-danger">
+          The quick look could not be made: {state.message}
+        </p>
+      )}
+
+      <div className="grid gap-4 2xl:grid-cols-[minmax(0,1fr)_24rem]">
+        <div className="min-w-0 space-y-4">
+          <PlotCard title="Spectrum" note={result ? spectrumNote(result) : undefined}>
+            {figures ? (
+              <Plot label="Spectrum of the capture head" testId="spectrum-plot" height={PLOT_HEIGHT} {...figures.spectrum} />
+            ) : (
+              <PlotPlaceholder height={PLOT_HEIGHT} text={state.phase === 'failed' ? 'No spectrum.' : pending} />
+            )}
+          </PlotCard>
+          <div className="grid gap-4 xl:grid-cols-2">
+            <PlotCard title="Spectrogram" note={result ? `${result.spectrogramFftSize}-point FFT, ${result.spectrogram.levels.length} rows, Hann window` : undefined}>
+              {figures ? (
+                <Plot label="Spectrogram of the capture head" testId="spectrogram-plot" height={PLOT_HEIGHT} {...figures.spectrogram} />
+              ) : (
+                <PlotPlaceholder height={PLOT_HEIGHT} text={state.phase === 'failed' ? 'No spectrogram.' : pending} />
+              )}
+            </PlotCard>
+            <PlotCard title={capture.layout === 'real' ? 'Signal against time' : 'I and Q against time'} note={result ? traceNote(result.trace.samplesPerColumn) : undefined}>
+              {figures ? (
+                <Plot label="I and Q against time" testId="trace-plot" height={PLOT_HEIGHT} {...figures.trace} />
+              ) : (
+                <PlotPlaceholder height={PLOT_HEIGHT} text={state.phase === 'failed' ? 'No trace.' : pending} />
+              )}
+            </PlotCard>
+          </div>
+        </div>
+        <div className="space-y-4">
+          {result ? (
+            <BalanceReport balance={result.balance} layout={capture.layout} samples={result.samples} sampleRate={capture.sampleRate} />
+          ) : (
+            <section className="rounded-lg border border-line bg-panel p-4 text-sm text-muted">
+              <h3 className="font-semibold text-ink">Balance report</h3>
+              <p className="mt-1">{state.phase === 'failed' ? 'Not available.' : pending}</p>
+            </section>
+          )}
+          <AnnotationsList annotations={annotations} sampleRate={capture.sampleRate} headSamples={state.headSamples} />
+        </div>
+      </div>
+    </section>
+  );
+}
+
+function PlotCard({ title, note, children }: { title: string; note?: string; children: React.ReactNode }) {
+  return (
+    <section className="min-w-0 rounded-lg border border-line bg-panel p-4">
+      <div className="mb-2 flex flex-wrap items-baseline justify-between gap-x-4">
+        <h3 className="font-semibold">{title}</h3>
+        {note && <p className="font-mono text-xs text-muted">{note}</p>}
+      </div>
+      {children}
+    </section>
+  );
+}
+
+function spectrumNote(result: NonNullable<ReturnType<typeof useQuickLook> & { result: unknown }>['result'] | import('./quicklook-analysis').QuickLookResult): string {
+  const r = result as import('./quicklook-analysis').QuickLookResult;
+  return `Welch, ${r.spectrumFftSize}-point Hann, RBW ${formatQuantity(r.spectrum.resolutionBandwidth, 'Hz')}, ${r.spectrum.segments} segments`;
+}
+
+function traceNote(samplesPerColumn: number): string {
+  return samplesPerColumn > 1 ? `min/max of ${samplesPerColumn} samples per point` : 'every sample';
+}

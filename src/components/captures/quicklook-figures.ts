@@ -1,0 +1,150 @@
+/**
+ * Plotly figures of the quick look: spectrum, spectrogram with annotation rectangles, and I and Q
+ * against time as min/max bands. Frequencies are RF when the centre frequency is known.
+ */
+import type { Data, Layout } from 'plotly.js-dist-min';
+import { axisScale, axisTitle, scaled } from '../plots/axes';
+import type { PlotTheme } from '../plots/plot-theme';
+import type { QuickLookResult } from './quicklook-analysis';
+import type { Annotation } from './types';
+import type { SampleType } from '@/dsp/types';
+
+export interface Figure {
+  data: Data[];
+  layout: Partial<Layout>;
+}
+
+/** Frequency axis of the quick look: RF when the centre is known, else relative to the capture's 0 Hz. */
+function frequencyAxis(result: QuickLookResult, centerFrequency: number | null) {
+  const offset = centerFrequency ?? 0;
+  const freqs = result.spectrum.frequencies;
+  const scale = axisScale(freqs[0] + offset, freqs[freqs.length - 1] + offset, 'Hz');
+  const label = centerFrequency !== null ? 'Frequency' : result.sampleType === 'complex' ? 'Frequency offset from the centre' : 'Frequency';
+  return { offset, scale, title: axisTitle(label, scale) };
+}
+
+/** Welch spectrum in dBFS/Hz against frequency. */
+export function spectrumFigure(result: QuickLookResult, centerFrequency: number | null, theme: PlotTheme): Figure {
+  const axis = frequencyAxis(result, centerFrequency);
+  const { spectrum } = result;
+  return {
+    data: [
+      {
+        type: 'scatter',
+        mode: 'lines',
+        name: 'Welch PSD',
+        x: scaled(spectrum.frequencies, axis.scale, axis.offset),
+        y: spectrum.levels,
+        line: { color: theme.accent, width: 1.25 },
+        hovertemplate: `%{x:.6~f} ${axis.scale.unit}<br>%{y:.1f} ${spectrum.unit}<extra></extra>`,
+      },
+    ],
+    layout: {
+      showlegend: false,
+      xaxis: { title: { text: axis.title }, zeroline: false },
+      yaxis: { title: { text: `Level (${spectrum.unit})` }, zeroline: false },
+    },
+  };
+}
+
+/** Level below which a fraction `p` of the spectrogram's pixels lie (for the colour scale's floor). */
+function percentile(levels: number[][], p: number): number {
+  const all = levels.flat().filter((v) => v > -299);
+  if (all.length === 0) return -300;
+  all.sort((a, b) => a - b);
+  return all[Math.min(all.length - 1, Math.floor(p * all.length))];
+}
+
+/** Spectrogram as a heatmap (time up, frequency across) with annotations drawn as rectangles. */
+export function spectrogramFigure(result: QuickLookResult, centerFrequency: number | null, annotations: Annotation[], theme: PlotTheme): Figure {
+  const axis = frequencyAxis(result, centerFrequency);
+  const { spectrogram } = result;
+  const duration = result.samples / result.sampleRate;
+  const timeScale = axisScale(0, duration, 's');
+  const x = scaled(spectrogram.frequencies, axis.scale, axis.offset);
+  const xLow = x[0];
+  const xHigh = x[x.length - 1];
+  const shapes: NonNullable<Layout['shapes']> = [];
+  const labels: NonNullable<Layout['annotations']> = [];
+  for (const a of annotations) {
+    const start = a.sampleStart / result.sampleRate;
+    if (start >= duration) continue;
+    const end = a.sampleCount !== null ? Math.min(duration, (a.sampleStart + a.sampleCount) / result.sampleRate) : duration;
+    // SigMF edges are RF frequencies; without a centre frequency they can only be read as offsets.
+    const x0 = a.freqLowerEdge !== null ? a.freqLowerEdge / axis.scale.divisor : xLow;
+    const x1 = a.freqUpperEdge !== null ? a.freqUpperEdge / axis.scale.divisor : xHigh;
+    const y0 = start / timeScale.divisor;
+    const y1 = end / timeScale.divisor;
+    shapes.push({ type: 'rect', xref: 'x', yref: 'y', x0, x1, y0, y1, line: { color: 'rgba(255,255,255,0.95)', width: 1.5, dash: 'dot' }, fillcolor: 'rgba(0,0,0,0)' });
+    if (a.label) {
+      labels.push({
+        x: x0, y: y1, xref: 'x', yref: 'y', text: a.label, showarrow: false, xanchor: 'left', yanchor: 'top',
+        font: { size: 11, color: '#ffffff' }, bgcolor: 'rgba(0,0,0,0.55)', borderpad: 2,
+      });
+    }
+  }
+  return {
+    data: [
+      {
+        type: 'heatmap',
+        x,
+        y: scaled(spectrogram.times, timeScale),
+        z: spectrogram.levels,
+        colorscale: 'Viridis',
+        zmin: percentile(spectrogram.levels, 0.05),
+        zmax: Math.max(...spectrogram.levels.map((row) => Math.max(...row))),
+        colorbar: {
+          title: { text: spectrogram.unit, side: 'right', font: { size: 11, color: theme.muted } },
+          thickness: 10,
+          outlinewidth: 0,
+          tickfont: { family: '"JetBrains Mono Variable", ui-monospace, monospace', size: 10, color: theme.muted },
+        },
+        hovertemplate: `%{x:.6~f} ${axis.scale.unit}<br>%{y:.4~f} ${timeScale.unit}<br>%{z:.1f} ${spectrogram.unit}<extra></extra>`,
+      },
+    ],
+    layout: {
+      xaxis: { title: { text: axis.title }, showgrid: false, zeroline: false },
+      yaxis: { title: { text: axisTitle('Time', timeScale) }, showgrid: false, zeroline: false },
+      shapes,
+      annotations: labels,
+    },
+  };
+}
+
+/** Channel names of the trace plot. */
+function channelNames(layout: SampleType): string[] {
+  if (layout === 'complex') return ['I', 'Q'];
+  if (layout === 'real-pair') return ['Channel 0 (I)', 'Channel 1 (Q)'];
+  return ['Signal'];
+}
+
+/** I and Q (or the real signal) against time: a min/max band per pixel column and channel. */
+export function traceFigure(result: QuickLookResult, layout: SampleType, theme: PlotTheme): Figure {
+  const { trace } = result;
+  const columns = trace.channels[0]?.min.length ?? 0;
+  const timeScale = axisScale(0, result.samples / result.sampleRate, 's');
+  const times = new Array<number>(columns);
+  for (let c = 0; c < columns; c++) times[c] = (c * trace.samplesPerColumn) / trace.sampleRate / timeScale.divisor;
+  const names = channelNames(layout);
+  const data: Data[] = [];
+  trace.channels.forEach((channel, index) => {
+    const colour = theme.series[index % theme.series.length];
+    const fill = colour.replace(/, 1\)$/, ', 0.35)');
+    const hover = `${names[index]}: %{y:.4f} FS at %{x:.4~f} ${timeScale.unit}<extra></extra>`;
+    if (trace.samplesPerColumn === 1) {
+      data.push({ type: 'scatter', mode: 'lines', name: names[index], x: times, y: channel.max, line: { color: colour, width: 1 }, hovertemplate: hover });
+      return;
+    }
+    data.push({ type: 'scatter', mode: 'lines', name: names[index], legendgroup: names[index], showlegend: false, x: times, y: channel.min, line: { color: colour, width: 0.75 }, hovertemplate: hover });
+    data.push({ type: 'scatter', mode: 'lines', name: names[index], legendgroup: names[index], x: times, y: channel.max, fill: 'tonexty', fillcolor: fill, line: { color: colour, width: 0.75 }, hovertemplate: hover });
+  });
+  return {
+    data,
+    layout: {
+      showlegend: true,
+      xaxis: { title: { text: axisTitle('Time', timeScale) }, zeroline: false },
+      yaxis: { title: { text: 'Amplitude (FS)' }, zeroline: true },
+      hovermode: 'x',
+    },
+  };
+}
