@@ -75,9 +75,12 @@ export function parseJsonPositions(text: string): JsonNode {
         entries.push({ key, keyFrom, keyTo, value: value() });
         space();
         if (text[i] === ',') {
-          i++;
+          const comma = i++;
           space();
-          if (text[i] === '}') fail('a trailing comma is not allowed before }');
+          if (text[i] === '}') {
+            i = comma;
+            fail('a trailing comma is not allowed before }');
+          }
           continue;
         }
         if (text[i] === '}') {
@@ -99,9 +102,12 @@ export function parseJsonPositions(text: string): JsonNode {
         items.push(value());
         space();
         if (text[i] === ',') {
-          i++;
+          const comma = i++;
           space();
-          if (text[i] === ']') fail('a trailing comma is not allowed before ]');
+          if (text[i] === ']') {
+            i = comma;
+            fail('a trailing comma is not allowed before ]');
+          }
           continue;
         }
         if (text[i] === ']') {
