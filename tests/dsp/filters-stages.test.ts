@@ -5,6 +5,7 @@ import { getStageDefinition } from '@/dsp/stages/index';
 import { designFilter, filterResponse, filterSchema, frequencyResponse, windowedSincTaps } from '@/dsp/filters';
 import type { StreamFormat } from '@/dsp/types';
 import { runChain } from '@/dsp/chain/runner';
+import { maxAbsoluteError } from './filters-fixtures';
 
 const complex10M: StreamFormat = { sampleRate: 10e6, sampleType: 'complex' };
 const parseFilter = (p: unknown) => filterSchema.parse(p);
@@ -151,7 +152,7 @@ describe('decimate stage', () => {
     expect(Array.from(y)).toEqual([0, 1, 6, 7, 12, 13, 18, 19, 24, 25, 30, 31, 36, 37]);
   });
 
-  it('a fused filter + decimate gives exactly the output of the two stages in turn', () => {
+  it('a fused filter + decimate gives the output of the two stages in turn', () => {
     const filterParams = parseFilter({ design: 'window', cutoff: 400e3, taps: 127 });
     const decimateParams = decimateSchema.parse({ factor: 8, antiAlias: false });
     let s = 7;
@@ -159,7 +160,10 @@ describe('decimate stage', () => {
     const filtered = filterStage.create(filterParams, complex10M).process(x).slice();
     const separate = decimateStage.create(decimateParams, complex10M).process(filtered).slice();
     const fused = createFilterDecimateProcessor(filterParams, decimateParams, complex10M)!;
-    expect(fused.process(x)).toEqual(separate);
+    const y = fused.process(x);
+    expect(y.length).toBe(separate.length);
+    // Same taps, sums in another order (polyphase): equal to float32 rounding.
+    expect(maxAbsoluteError(y, separate)).toBeLessThan(1e-6);
     // IIR filters keep every output for their state: no fusion.
     expect(createFilterDecimateProcessor(parseFilter({ design: 'iir', cutoff: 400e3 }), decimateParams, complex10M)).toBeUndefined();
   });
@@ -185,6 +189,7 @@ describe('decimate stage', () => {
     const plain = await collect(true);
     expect(fused.result.outputFormat.sampleRate).toBe(1.25e6);
     expect(fused.out.length).toBe(2 * Math.ceil(30000 / 8));
-    expect(fused.out).toEqual(plain.out);
+    expect(fused.out.length).toBe(plain.out.length);
+    expect(maxAbsoluteError(fused.out, plain.out)).toBeLessThan(1e-6);
   });
 });

@@ -105,8 +105,9 @@ function convolve(a: ArrayLike<number>, b: ArrayLike<number>): Float64Array {
  * One processor for a FIR `filter` stage followed by a `decimate` stage: the filter's taps (with
  * the built-in anti-alias taps convolved in when antiAlias is on) run as one polyphase decimator,
  * so only the kept outputs are computed, a factor `factor` less work than filtering at the full
- * rate. With antiAlias off the output is bit-identical to running the two stages one after the
- * other. Undefined when the filter is not FIR (an IIR needs every output for its state).
+ * rate. With antiAlias off the output equals that of the two stages one after the other up to
+ * float64 rounding (the sums run in another order). Undefined when the filter is not FIR (an IIR
+ * needs every output for its state).
  */
 export function createFilterDecimateProcessor(filterParams: FilterParams, decimateParams: DecimateParams, input: StreamFormat): StageProcessor | undefined {
   const design = designFilter(filterParams, input.sampleRate);
