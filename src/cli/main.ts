@@ -34,6 +34,7 @@ Capture options:
   --center-frequency HZ     RF frequency that 0 Hz stands for
   --layout LAYOUT           complex | real | real-pair (r datatypes: real-pair = two ADC channels;
                             a 2-channel WAV may be read as complex I = left, Q = right)
+  --read-bytes N            bytes per read from the capture file (default 1 MiB)
 
 run writes into DIR:
   results.json              engine version, input, every probe (stage id, kind; spectrum:

@@ -20,7 +20,8 @@ export function buildResults(args: {
   engineVersion: string;
   chainPath: string;
   doc: ChainDocument;
-  capture: CaptureSource;
+  /** Only what the results describe, so the server's workers can pass a stored capture. */
+  capture: Pick<CaptureSource, 'path' | 'kind' | 'datatypeLabel' | 'format'>;
   run: RunFigures;
   outputDatatype: string;
   seconds: number;

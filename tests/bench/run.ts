@@ -148,7 +148,7 @@ async function main(): Promise<void> {
       writeBenchCapture(bigBase, nl);
       const big = await runOurs(bigBase, join(dir, 'out-large'));
       rmSync(`${bigBase}.sigmf-data`);
-      console.log(`\nlarge run: ${nl} (2^27) samples: wall ${big.wallSeconds.toFixed(2)} s, ${(nl / big.wallSeconds / 1e6).toFixed(1)} Msamples/s, peak RSS ${fmt(big.peakRssBytes === null ? null : big.peakRssBytes / MiB, 1)} MiB (2^24: ${fmt(ours.rssMax === null ? null : ours.rssMax / MiB, 1)} MiB)`);
+      console.log(`\nlarge run: ${nl} (2^27) samples: wall ${big.wallSeconds.toFixed(2)} s, ${(nl / big.wallSeconds / 1e6).toFixed(1)} Msamples/s, CPU ${fmt(big.cpuSeconds, 2)} s, peak RSS ${fmt(big.peakRssBytes === null ? null : big.peakRssBytes / MiB, 1)} MiB (2^24: ${fmt(ours.rssMax === null ? null : ours.rssMax / MiB, 1)} MiB)`);
       const flat = big.peakRssBytes !== null && ours.rssMax !== null && big.peakRssBytes <= ours.rssMax * 1.15 && big.peakRssBytes <= 128 * MiB;
       console.log(`RSS flat (2^27 within 15 % of 2^24 and <= 128 MiB): ${verdict(flat)}; peak ${big.peakFrequency.toFixed(2)} Hz at ${big.peakLevel.toFixed(4)} dBFS/Hz`);
     } else {
