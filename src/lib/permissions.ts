@@ -130,6 +130,14 @@ export const endpointActions = {
   '/api/account/password': { POST: 'account.update' },
   '/api/admin/users': { GET: 'user.list', POST: 'user.create' },
   '/api/admin/users/[id]': { PATCH: 'user.update' },
+  '/api/chains': { GET: 'chain.read', POST: 'chain.create' },
+  '/api/chains/[id]': { GET: 'chain.read', PATCH: 'chain.update', DELETE: 'chain.delete' },
+  '/api/chains/[id]/revisions': { GET: 'chain.read', POST: 'chain.update' },
+  '/api/chains/[id]/revisions/[revision]': { GET: 'chain.read' },
+  '/api/chains/[id]/diff': { GET: 'chain.read' },
+  '/api/chains/[id]/restore': { POST: 'chain.update' },
+  '/api/chains/[id]/fork': { POST: 'chain.fork' },
+  '/api/chains/[id]/export': { GET: 'chain.read' },
 } as const satisfies Record<string, Partial<Record<HttpMethod, Action>>>;
 
 /**

@@ -4,13 +4,14 @@
  */
 import type { Knex } from 'knex';
 import { seedDemoAccounts } from './accounts';
+import { seedDemoChains } from './chains';
 import type { SeedStep } from './types';
 
 export { demoAccounts, demoPassword } from './accounts';
 export type { SeedStep } from './types';
 
 /** Every seed step, in the order they run. */
-export const seedSteps: SeedStep[] = [seedDemoAccounts];
+export const seedSteps: SeedStep[] = [seedDemoAccounts, seedDemoChains];
 
 /** Runs every seed step on `db`; returns the names of the steps that added data. */
 export async function seedDemo(db: Knex): Promise<string[]> {

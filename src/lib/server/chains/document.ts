@@ -1,0 +1,54 @@
+/**
+ * Chain documents on their way into the database: validated by the engine's parser, stored in
+ * canonical form (every default filled in, keys in a fixed order) and identified by a SHA-256 of
+ * that text. Storing the completed document keeps a revision's meaning fixed even if a later
+ * engine changes a default.
+ */
+import { createHash } from 'node:crypto';
+import { canonicalChain, ISSUE_CODES, parseChainDocument, type ChainDocument } from '@/dsp/chain';
+import type { ChainIssue } from '@/dsp/types';
+import { unprocessable, type ApiError } from '../api/errors';
+
+/** A document ready to store: its canonical JSON text and that text's SHA-256 (hex). */
+export interface StoredDocument {
+  document: ChainDocument;
+  json: string;
+  hash: string;
+}
+
+const stageMessage = /^stages\[(\d+)\]/;
+const parameterCodes: ReadonlySet<string> = new Set([ISSUE_CODES.invalidParameter, ISSUE_CODES.unknownParameter]);
+
+/**
+ * The request field an engine issue is about, from the body's root: `document.stages[2].params.cutoff`,
+ * `document.stages[0].kind`, `document.version`. The engine names the stage by position at the
+ * start of its message, which is the one reliable index (ids may be missing or duplicated).
+ */
+export function issueField(issue: ChainIssue, root = 'document'): string {
+  const stage = stageMessage.exec(issue.message);
+  if (!stage) return issue.field ? `${root}.${issue.field}` : root;
+  const base = `${root}.stages[${stage[1]}]`;
+  if (parameterCodes.has(issue.code)) return issue.field ? `${base}.params.${issue.field}` : `${base}.params`;
+  return issue.field ? `${base}.${issue.field}` : base;
+}
+
+/** 422 `invalid_chain` for the first problem, naming the field; the count of the others follows. */
+export function invalidChain(issues: ChainIssue[], root = 'document'): ApiError {
+  const first = issues[0]!;
+  const more = issues.length > 1 ? ` (and ${issues.length - 1} more problem${issues.length > 2 ? 's' : ''})` : '';
+  return unprocessable('invalid_chain', `${first.message}${more}`, issueField(first, root));
+}
+
+/** Validates a chain document from a request body (422 `invalid_chain` naming the field) and prepares it for storage. */
+export function prepareDocument(value: unknown, root = 'document'): StoredDocument {
+  const parsed = parseChainDocument(value);
+  if (!parsed.ok) throw invalidChain(parsed.issues, root);
+  const canonical = canonicalChain(parsed.document);
+  const json = JSON.stringify(canonical);
+  return { document: canonical as unknown as ChainDocument, json, hash: createHash('sha256').update(json).digest('hex') };
+}
+
+/** Reads a stored document back. */
+export function storedDocument(json: string): ChainDocument {
+  return JSON.parse(json) as ChainDocument;
+}
