@@ -114,7 +114,8 @@ export function can(user: Actor | null, action: Action, resource?: OwnedResource
   return access(user, action, resource) === 'allowed';
 }
 
-export type HttpMethod = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
+/** `ALL` is an endpoint that takes every method itself (the tus upload protocol uses HEAD and PATCH). */
+export type HttpMethod = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE' | 'ALL';
 
 /**
  * Every API endpoint, by Astro route pattern and method, with the action it performs. The
@@ -138,6 +139,17 @@ export const endpointActions = {
   '/api/chains/[id]/restore': { POST: 'chain.update' },
   '/api/chains/[id]/fork': { POST: 'chain.fork' },
   '/api/chains/[id]/export': { GET: 'chain.read' },
+  // Captures: uploads (one request, or resumable through tus under /api/uploads) and synthesis create.
+  '/api/captures': { GET: 'capture.read', POST: 'capture.create' },
+  '/api/captures/check': { POST: 'capture.create' },
+  '/api/captures/bulk-delete': { POST: 'capture.delete' },
+  '/api/captures/[id]': { GET: 'capture.read', PATCH: 'capture.update', DELETE: 'capture.delete' },
+  '/api/captures/[id]/data': { GET: 'capture.read' },
+  '/api/captures/[id]/export': { GET: 'capture.read' },
+  '/api/uploads': { POST: 'capture.create' },
+  '/api/uploads/[id]': { ALL: 'capture.create' },
+  '/api/uploads/[id]/capture': { GET: 'capture.create' },
+  '/api/synth': { POST: 'capture.create' },
 } as const satisfies Record<string, Partial<Record<HttpMethod, Action>>>;
 
 /**
@@ -156,10 +168,14 @@ export const pageActions: Record<string, Action | Audience> = {
   '/admin': 'admin.view',
 };
 
-/** The action of an API request, or undefined when the route or method is not in the table. */
+/**
+ * The action of an API request, or undefined when the route or method is not in the table. HEAD
+ * counts as GET (as Astro serves it); an `ALL` entry covers every method its endpoint accepts.
+ */
 export function endpointAction(routePattern: string, method: string): Action | undefined {
   const methods: Partial<Record<string, Action>> | undefined = (
     endpointActions as Record<string, Partial<Record<string, Action>>>
   )[routePattern];
-  return methods?.[method.toUpperCase()];
+  const upper = method.toUpperCase();
+  return methods?.[upper] ?? (upper === 'HEAD' ? methods?.GET : undefined) ?? methods?.ALL;
 }

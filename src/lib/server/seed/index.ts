@@ -4,6 +4,7 @@
  */
 import type { Knex } from 'knex';
 import { seedDemoAccounts } from './accounts';
+import { seedDemoCaptures } from './captures';
 import { seedDemoChains } from './chains';
 import type { SeedStep } from './types';
 
@@ -11,7 +12,7 @@ export { demoAccounts, demoPassword } from './accounts';
 export type { SeedStep } from './types';
 
 /** Every seed step, in the order they run. */
-export const seedSteps: SeedStep[] = [seedDemoAccounts, seedDemoChains];
+export const seedSteps: SeedStep[] = [seedDemoAccounts, seedDemoCaptures, seedDemoChains];
 
 /** Runs every seed step on `db`; returns the names of the steps that added data. */
 export async function seedDemo(db: Knex): Promise<string[]> {

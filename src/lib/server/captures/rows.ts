@@ -1,0 +1,63 @@
+/**
+ * The captures table as rows, and the one query every read starts from (capture + owner name).
+ */
+import type { Knex } from 'knex';
+import type { SampleType } from '@/dsp/types';
+import type { Visibility } from './metadata';
+
+export type CaptureSource = 'uploaded' | 'synthesized';
+
+export interface CaptureRow {
+  id: string;
+  owner_id: string;
+  name: string;
+  visibility: Visibility;
+  /** Hz. */
+  sample_rate: number;
+  /** Hz, or null. */
+  center_frequency: number | null;
+  datatype: string;
+  layout: SampleType;
+  sample_count: number;
+  byte_size: number;
+  sha256: string;
+  storage_key: string;
+  source: CaptureSource;
+  /** JSON text of the synthesizer spec (defaults filled in), or null. */
+  synth_spec: string | null;
+  notes: string;
+  /** JSON text: string[]. */
+  tags: string;
+  /** JSON text: SigMF annotation objects. */
+  annotations: string;
+  created_at: string;
+  updated_at: string;
+}
+
+/** A row joined with its owner's display name. */
+export interface CaptureWithOwner extends CaptureRow {
+  owner_name: string;
+}
+
+/** Captures joined with their owners' names; add where/order clauses to it. */
+export function captureQuery(db: Knex): Knex.QueryBuilder<CaptureWithOwner, CaptureWithOwner[]> {
+  return db<CaptureWithOwner>('captures')
+    .join('users', 'users.id', 'captures.owner_id')
+    .select('captures.*', 'users.name as owner_name');
+}
+
+/** One capture with its owner's name, or undefined. */
+export async function findCapture(db: Knex, id: string): Promise<CaptureWithOwner | undefined> {
+  if (!/^[0-9a-f-]{36}$/i.test(id)) return undefined;
+  return (await captureQuery(db).where('captures.id', id).first()) as CaptureWithOwner | undefined;
+}
+
+/** Parses a JSON text column, falling back to `fallback` if it is not valid JSON. */
+export function parseJsonColumn<T>(text: string | null, fallback: T): T {
+  if (text === null) return fallback;
+  try {
+    return JSON.parse(text) as T;
+  } catch {
+    return fallback;
+  }
+}

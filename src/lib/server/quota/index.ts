@@ -1,0 +1,13 @@
+/** Per-user quotas: configured defaults, overrides, storage used and the next capture's allowance. */
+export { defaultQuota, parseByteCount, QuotaConfigError, type Quota } from './config';
+export {
+  assertFits,
+  captureAllowance,
+  quotaError,
+  quotaOf,
+  setUserQuota,
+  storageUsage,
+  storageUsed,
+  type Allowance,
+  type StorageUsage,
+} from './quotas';

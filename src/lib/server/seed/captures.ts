@@ -1,0 +1,41 @@
+/**
+ * Demo captures of the Saltmarsh Telemetry scenario: the synthesizer's four demo specs, owned by
+ * the demo engineer and visible to the team, made through the same command as POST /api/synth.
+ * Runs only while the database holds no capture at all. QUADRILLE_DEMO_CAPTURES=0 skips it
+ * (a few seconds of synthesis that tests which do not look at captures can spare).
+ */
+import type { Knex } from 'knex';
+import { demoSynthSpecs } from '@/dsp/synth';
+import { createSynthesizedCapture, DuplicateCaptureError, objectStoreForDatabase } from '../captures';
+import { findUserByEmail } from '../users';
+import type { SeedStep } from './types';
+
+/** The demo account that owns the demo captures. */
+export const demoCaptureOwnerEmail = 'engineer@saltmarsh.test';
+
+export const seedDemoCaptures: SeedStep = {
+  name: 'demo captures',
+  async run(db: Knex) {
+    if (process.env.QUADRILLE_DEMO_CAPTURES === '0') return false;
+    const owner = await findUserByEmail(db, demoCaptureOwnerEmail);
+    if (!owner) return false;
+    const existing = await db('captures').count<{ count: number }[]>({ count: '*' }).first();
+    if (Number(existing?.count ?? 0) > 0) return false;
+    const store = objectStoreForDatabase(db);
+    for (const demo of demoSynthSpecs) {
+      try {
+        await createSynthesizedCapture(db, store, owner, {
+          name: demo.name,
+          visibility: 'team',
+          notes: demo.description,
+          tags: demo.tags,
+          spec: demo.spec,
+        });
+      } catch (error) {
+        // Same bytes already stored (an earlier run stopped half-way): keep that one.
+        if (!(error instanceof DuplicateCaptureError)) throw error;
+      }
+    }
+    return true;
+  },
+};
