@@ -44,9 +44,11 @@ function buildIfNeeded(): void {
   if (builtAt >= sourcesAt) return;
   console.log(builtAt ? 'Sources changed since the last build: building Quadrille...' : 'No build yet: building Quadrille (about half a minute)...');
   const build = spawnSync(process.execPath, ['node_modules/astro/astro.js', 'build'], { stdio: 'inherit' });
-  if (build.status !== 0) {
+  // The run workers are built beside the server: it has no TypeScript loader to start them from source.
+  const workers = build.status === 0 ? spawnSync(process.execPath, ['scripts/build-workers.mjs'], { stdio: 'inherit' }) : build;
+  if (build.status !== 0 || workers.status !== 0) {
     console.error('The build failed; see the messages above.');
-    process.exit(build.status ?? 1);
+    process.exit((build.status || workers.status) ?? 1);
   }
 }
 

@@ -139,6 +139,15 @@ export const endpointActions = {
   '/api/chains/[id]/restore': { POST: 'chain.update' },
   '/api/chains/[id]/fork': { POST: 'chain.fork' },
   '/api/chains/[id]/export': { GET: 'chain.read' },
+  // Runs: retry makes a new run, so it is run.create (the endpoint also requires owning the run).
+  '/api/runs': { GET: 'run.read', POST: 'run.create' },
+  '/api/runs/compare': { GET: 'run.read' },
+  '/api/runs/[id]': { GET: 'run.read' },
+  '/api/runs/[id]/cancel': { POST: 'run.cancel' },
+  '/api/runs/[id]/retry': { POST: 'run.create' },
+  '/api/runs/[id]/events': { GET: 'run.read' },
+  '/api/runs/[id]/export': { GET: 'run.export' },
+  '/api/runs/[id]/plot': { GET: 'run.read' },
   // Captures: uploads (one request, or resumable through tus under /api/uploads) and synthesis create.
   '/api/captures': { GET: 'capture.read', POST: 'capture.create' },
   '/api/captures/check': { POST: 'capture.create' },

@@ -6,6 +6,7 @@
 import { getDb } from './db';
 import { migrateToLatest } from './db/migration-source';
 import { getLucia } from './auth/lucia';
+import { startRunScheduler } from './runs/scheduler';
 
 let ready: Promise<void> | null = null;
 
@@ -13,6 +14,8 @@ async function prepare(): Promise<void> {
   const applied = await migrateToLatest(getDb());
   if (applied.length > 0) console.log(`Applied migrations: ${applied.join(', ')}`);
   await getLucia().deleteExpiredSessions();
+  // Runs left running by a process that died are queued again and the queue starts executing.
+  await startRunScheduler();
 }
 
 /** Resolves once the database is ready; every caller shares one attempt. */

@@ -1,0 +1,29 @@
+/**
+ * Builds the worker-thread entries (workers/*-worker.ts) into plain ES modules beside the built
+ * server (dist/workers/<name>.mjs): the built server runs without a TypeScript loader. npm
+ * packages stay external and load from node_modules, like the server's own imports; the `@/`
+ * alias resolves through tsconfig.json's paths. Usage: node scripts/build-workers.mjs [outDir]
+ */
+import { readdirSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import { build } from 'esbuild';
+
+const outDir = resolve(process.argv[2] ?? 'dist', 'workers');
+const entries = readdirSync('workers')
+  .filter((name) => name.endsWith('-worker.ts'))
+  .map((name) => join('workers', name));
+
+await build({
+  entryPoints: entries,
+  outdir: outDir,
+  outExtension: { '.js': '.mjs' },
+  bundle: true,
+  platform: 'node',
+  target: 'node20',
+  format: 'esm',
+  packages: 'external',
+  tsconfig: 'tsconfig.json',
+  sourcemap: false,
+  logLevel: 'warning',
+});
+console.log(`Built ${entries.length} worker entr${entries.length === 1 ? 'y' : 'ies'} into ${outDir}`);

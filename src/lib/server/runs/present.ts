@@ -1,0 +1,93 @@
+/**
+ * Shapes runs for API answers (the contract the run pages build on): never the row, so storage
+ * keys and cache keys cannot leak. An admin looking at the whole queue sees other users' private
+ * runs with their chain and capture names withheld.
+ */
+import { access, can, type Actor } from '@/lib/permissions';
+import { finishedStatuses, flag, runResource, type RunStatus, type RunView } from './rows';
+
+export interface PresentedRunError {
+  message: string;
+  /** The stage that failed, or null when the capture itself (or the server) failed. */
+  stageId: string | null;
+  /** The failing stage's kind, or `input` / `internal`. */
+  kind: string;
+  /** Input sample of that stage where it failed, or null when unknown. */
+  sampleIndex: number | null;
+}
+
+export interface PresentedRun {
+  id: string;
+  chain: { id: string; name: string; revision: number };
+  capture: { id: string; name: string };
+  status: RunStatus;
+  /** 0..1. */
+  progress: number;
+  currentStage: string | null;
+  /** Estimated seconds left (s), or null when not running or too early to tell. */
+  etaSeconds: number | null;
+  requestedBy: { id: string; name: string };
+  createdAt: string;
+  startedAt: string | null;
+  finishedAt: string | null;
+  /** Wall time from start to end (ms), or null until finished. */
+  durationMs: number | null;
+  fromCache: boolean;
+  attempt: number;
+  retryOf: string | null;
+  error: PresentedRunError | null;
+  permissions: { cancel: boolean; retry: boolean };
+  /** Only in GET /api/runs/:id of a succeeded run: the command line's results.json shape. */
+  results?: unknown;
+}
+
+function iso(value: string | null): string | null {
+  return value === null ? null : new Date(value).toISOString();
+}
+
+/** Seconds left (s) from the elapsed time and progress; null before 1 % (too noisy to say). */
+export function estimateSecondsLeft(startedAt: string | null, progress: number, now: number = Date.now()): number | null {
+  if (!startedAt || !(progress >= 0.01) || progress >= 1) return null;
+  const elapsed = (now - new Date(startedAt).getTime()) / 1000;
+  return Math.max(0, Math.round((elapsed * (1 - progress)) / progress));
+}
+
+/** The run as `viewer` sees it, with what `viewer` may do to it. */
+export function presentRun(run: RunView, viewer: Actor, results?: unknown): PresentedRun {
+  const resource = runResource(run);
+  const visible = access(viewer, 'run.read', resource) === 'allowed';
+  const active = !finishedStatuses.has(run.status);
+  const owns = can(viewer, 'run.cancel', resource);
+  const presented: PresentedRun = {
+    id: run.id,
+    chain: { id: run.chain_id, name: visible ? run.chain_name : 'Private chain', revision: run.chain_revision },
+    capture: { id: run.capture_id, name: visible ? run.capture_name : 'Private capture' },
+    status: run.status,
+    progress: Number(run.progress),
+    currentStage: run.current_stage,
+    etaSeconds: run.status === 'running' ? estimateSecondsLeft(run.started_at, Number(run.progress)) : null,
+    requestedBy: { id: run.requested_by, name: run.requester_name },
+    createdAt: iso(run.created_at)!,
+    startedAt: iso(run.started_at),
+    finishedAt: iso(run.finished_at),
+    durationMs: run.duration_ms === null ? null : Number(run.duration_ms),
+    fromCache: flag(run.from_cache),
+    attempt: Number(run.attempt),
+    retryOf: run.retry_of,
+    error:
+      run.status === 'failed' && run.error_message !== null
+        ? {
+            message: run.error_message,
+            stageId: run.error_stage_id,
+            kind: run.error_kind ?? 'internal',
+            sampleIndex: run.error_sample_index === null ? null : Number(run.error_sample_index),
+          }
+        : null,
+    permissions: {
+      cancel: active && (owns || can(viewer, 'queue.manage')),
+      retry: (run.status === 'failed' || run.status === 'cancelled') && owns && can(viewer, 'run.create'),
+    },
+  };
+  if (results !== undefined) presented.results = results;
+  return presented;
+}

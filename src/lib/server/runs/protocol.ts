@@ -1,0 +1,61 @@
+/**
+ * Messages between the scheduler (main thread) and a run worker. A job carries everything the
+ * worker needs to read the capture and write the output, so the worker never opens the database:
+ * the main thread owns every write to SQLite.
+ */
+import type { ChainDocument } from '@/dsp/chain';
+import type { SampleType } from '@/dsp/types';
+
+/** What a worker is asked to do (sent as workerData). */
+export interface RunJob {
+  runId: string;
+  document: ChainDocument;
+  chain: { id: string; name: string; revision: number };
+  capture: {
+    id: string;
+    name: string;
+    storageKey: string;
+    /** SigMF datatype, e.g. cf32_le. */
+    datatype: string;
+    layout: SampleType;
+    /** Hz. */
+    sampleRate: number;
+    /** Hz, or null. */
+    centerFrequency: number | null;
+    sampleCount: number;
+  };
+  /** Fresh object key the output samples go to. */
+  outputKey: string;
+  /** Least time (ms) between two progress messages. */
+  progressIntervalMs: number;
+}
+
+/** Where and why a run failed: `stageId`/`kind` name the stage (null, 'input' for the capture itself). */
+export interface RunFailure {
+  message: string;
+  stageId: string | null;
+  kind: string;
+  /** Input sample of that stage (or of the capture) where it failed, or null when unknown. */
+  sampleIndex: number | null;
+}
+
+/** The output capture a successful worker stored. */
+export interface StoredOutput {
+  key: string;
+  /** Bytes stored. */
+  bytes: number;
+  samples: number;
+  /** SigMF metadata text describing the stored data. */
+  meta: string;
+}
+
+export type WorkerMessage =
+  | { type: 'progress'; fraction: number; samplesIn: number; stageId: string | null }
+  | { type: 'succeeded'; resultsJson: string; output: StoredOutput; seconds: number }
+  | { type: 'failed'; error: RunFailure; seconds: number }
+  | { type: 'cancelled'; seconds: number };
+
+/** The last message of a worker: how the run ended. */
+export type WorkerOutcome = Exclude<WorkerMessage, { type: 'progress' }>;
+
+export type SchedulerMessage = { type: 'cancel' };

@@ -1,0 +1,215 @@
+/**
+ * The run scheduler of this server process. The runs table is the queue; p-queue is the pool that
+ * bounds how many runs execute at once (QUADRILLE_RUN_CONCURRENCY). Whenever a slot is free the
+ * scheduler picks the next queued run fairly (users take turns, each within their concurrent-run
+ * quota), claims it, and executes it in a worker thread. Only one server process may run the queue
+ * of a data folder: on start it takes back every run left running.
+ */
+import { randomUUID } from 'node:crypto';
+import type { Knex } from 'knex';
+import PQueue from 'p-queue';
+import { ENGINE_VERSION } from '@/dsp/version';
+import type { ChainDocument } from '@/dsp/chain';
+import { getDb } from '../db';
+import { getObjectStore } from '../captures/store';
+import { findCapture } from '../captures/rows';
+import { findRevision } from '../chains/rows';
+import { quotaOf } from '../quota';
+import type { ObjectStore } from '../storage';
+import { cacheKey, computationHash } from './cache-key';
+import { progressIntervalMs, runConcurrency } from './config';
+import { pickNextRun, type QueuedRun } from './fairness';
+import type { RunJob } from './protocol';
+import type { RunRow } from './rows';
+import {
+  claimRun,
+  completeFromCache,
+  completeSucceeded,
+  recordCancelled,
+  recordFailure,
+  recordProgress,
+  requeueInterruptedRuns,
+} from './transitions';
+import { startWorker, type WorkerRun } from './worker-host';
+
+/** Object key of a run attempt's output samples: fresh per attempt, so a put never overwrites. */
+export function outputObjectKey(): string {
+  return `run-outputs/${randomUUID()}/data`;
+}
+
+export class RunScheduler {
+  private readonly pool: PQueue;
+  /** Runs claimed by this process, by id, with their worker once started. */
+  private readonly active = new Map<string, { userId: string; worker: WorkerRun | null; cancelled: boolean }>();
+  private readonly lastServed = new Map<string, number>();
+  private served = 0;
+  private pumping = false;
+  private pumpAgain = false;
+
+  constructor(
+    private readonly db: Knex,
+    private readonly store: ObjectStore,
+    readonly concurrency: number = runConcurrency(),
+  ) {
+    this.pool = new PQueue({ concurrency });
+  }
+
+  /** Takes back runs a previous process left running, then starts executing the queue. */
+  async start(): Promise<number> {
+    const requeued = await requeueInterruptedRuns(this.db, this.store);
+    if (requeued > 0) console.log(`Requeued ${requeued} run(s) interrupted by the last shutdown.`);
+    this.wake();
+    return requeued;
+  }
+
+  /** Looks for queued runs to start (after a submission, a finish or a quota change). */
+  wake(): void {
+    void this.pump().catch((error: unknown) => console.error('Run scheduler could not pick the next run:', error));
+  }
+
+  /** Runs executing in this process now. */
+  get executing(): number {
+    return this.active.size;
+  }
+
+  /** Cancels a run: a queued one at once, a running one by stopping its worker. False when it had finished. */
+  async cancel(run: Pick<RunRow, 'id' | 'requested_by' | 'status'>): Promise<boolean> {
+    await this.db('runs').where({ id: run.id }).whereIn('status', ['queued', 'running']).update({ cancel_requested: true });
+    const active = this.active.get(run.id);
+    if (active) {
+      active.cancelled = true;
+      active.worker?.cancel();
+      return true;
+    }
+    // Not executing here: a queued run (or a running row no process owns) ends now.
+    return recordCancelled(this.db, run);
+  }
+
+  private async pump(): Promise<void> {
+    if (this.pumping) {
+      this.pumpAgain = true;
+      return;
+    }
+    this.pumping = true;
+    try {
+      do {
+        this.pumpAgain = false;
+        while (this.active.size < this.concurrency) {
+          const next = await this.pickNext();
+          if (!next) break;
+          const outputKey = outputObjectKey();
+          if (!(await claimRun(this.db, next.id, outputKey))) continue;
+          this.lastServed.set(next.userId, ++this.served);
+          this.active.set(next.id, { userId: next.userId, worker: null, cancelled: false });
+          void this.pool
+            .add(() => this.execute(next.id, outputKey))
+            .catch((error: unknown) => console.error(`Run ${next.id} could not be executed:`, error))
+            .finally(() => {
+              this.active.delete(next.id);
+              this.wake();
+            });
+        }
+      } while (this.pumpAgain);
+    } finally {
+      this.pumping = false;
+    }
+  }
+
+  private async pickNext(): Promise<QueuedRun | null> {
+    const queued = (await this.db('runs')
+      .where({ status: 'queued' })
+      .orderBy([{ column: 'created_at' }, { column: 'id' }])
+      .limit(2000)
+      .select('id', 'requested_by')) as Pick<RunRow, 'id' | 'requested_by'>[];
+    if (queued.length === 0) return null;
+    const runningRows = (await this.db('runs').where({ status: 'running' }).groupBy('requested_by').select('requested_by').count({ count: '*' })) as {
+      requested_by: string;
+      count: number | string;
+    }[];
+    const running = new Map(runningRows.map((row) => [row.requested_by, Number(row.count)]));
+    const users = [...new Set(queued.map((run) => run.requested_by))];
+    const limits = new Map<string, number>();
+    for (const userId of users) {
+      const quota = await quotaOf(this.db, userId);
+      // A quota of 0 concurrent runs would park the user's runs forever; it means "one at a time".
+      limits.set(userId, Math.max(1, quota.concurrentRuns));
+    }
+    return pickNextRun(
+      queued.map((run) => ({ id: run.id, userId: run.requested_by })),
+      { running, limits, lastServed: this.lastServed },
+    );
+  }
+
+  private async execute(runId: string, outputKey: string): Promise<void> {
+    const run = (await this.db('runs').where({ id: runId }).first()) as RunRow | undefined;
+    if (!run || run.status !== 'running') return;
+    const revision = await findRevision(this.db, run.chain_id, run.chain_revision);
+    const capture = await findCapture(this.db, run.capture_id);
+    if (!revision || !capture) {
+      const what = !revision ? `chain revision ${run.chain_revision} was deleted` : 'capture was deleted';
+      await recordFailure(this.db, run, { message: `The ${what} before the run started.`, stageId: null, kind: 'input', sampleIndex: null }, 0);
+      return;
+    }
+    const document = JSON.parse(revision.document) as ChainDocument;
+    const chainHash = computationHash(document);
+    const facts = { cacheKey: cacheKey(chainHash, capture.sha256, ENGINE_VERSION), chainHash, captureSha256: capture.sha256, engineVersion: ENGINE_VERSION };
+    // An identical run may have finished while this one waited in the queue.
+    const cached = (await this.db('run_results').where({ cache_key: facts.cacheKey }).first('id')) as { id: string } | undefined;
+    if (cached) {
+      await completeFromCache(this.db, run, cached.id);
+      return;
+    }
+    const job: RunJob = {
+      runId,
+      document,
+      chain: { id: run.chain_id, name: run.chain_name, revision: run.chain_revision },
+      capture: {
+        id: capture.id,
+        name: capture.name,
+        storageKey: capture.storage_key,
+        datatype: capture.datatype,
+        layout: capture.layout,
+        sampleRate: capture.sample_rate,
+        centerFrequency: capture.center_frequency,
+        sampleCount: Number(capture.sample_count),
+      },
+      outputKey,
+      progressIntervalMs: progressIntervalMs(),
+    };
+    const active = this.active.get(runId)!;
+    const worker = startWorker(job, (message) => {
+      void recordProgress(this.db, runId, message.fraction, message.stageId).catch(() => undefined);
+    });
+    active.worker = worker;
+    if (active.cancelled) worker.cancel();
+    const outcome = await worker.outcome;
+    if (outcome.type === 'succeeded') {
+      const filed = await completeSucceeded(this.db, run, facts, outcome.output, outcome.resultsJson, outcome.seconds).catch(async (error: unknown) => {
+        console.error(`Run ${runId}: could not file its results:`, error);
+        await recordFailure(this.db, run, { message: 'The results could not be saved.', stageId: null, kind: 'internal', sampleIndex: null }, outcome.seconds);
+        return { status: 'failed' as const, orphanKey: outcome.output.key };
+      });
+      if (filed.orphanKey) await this.store.delete(filed.orphanKey).catch(() => undefined);
+      return;
+    }
+    // Whatever a stopped or failed worker wrote is not a result.
+    await this.store.delete(outputKey).catch(() => undefined);
+    if (outcome.type === 'failed') await recordFailure(this.db, run, outcome.error, outcome.seconds);
+    else await recordCancelled(this.db, run, outcome.seconds);
+  }
+}
+
+const holderKey = Symbol.for('quadrille.runScheduler');
+type Holder = { [holderKey]?: RunScheduler };
+
+/** The scheduler of this process (made on first use). */
+export function getRunScheduler(): RunScheduler {
+  const holder = globalThis as Holder;
+  holder[holderKey] ??= new RunScheduler(getDb(), getObjectStore());
+  return holder[holderKey];
+}
+
+/** Starts this process's scheduler: requeues interrupted runs and begins executing the queue. */
+export async function startRunScheduler(): Promise<void> {
+  await getRunScheduler().start();
+}

@@ -1,0 +1,83 @@
+/**
+ * Starting a run worker thread and turning its messages into one outcome. Where the worker entry
+ * is: the built server (dist/server/entry.mjs) finds dist/workers/run-worker.mjs beside it (built
+ * by scripts/build-workers.mjs); elsewhere (astro dev) the TypeScript source runs through tsx.
+ */
+import { existsSync } from 'node:fs';
+import { dirname, resolve } from 'node:path';
+import { Worker } from 'node:worker_threads';
+import { cancelGraceMs, workerEntryOverride } from './config';
+import type { RunJob, SchedulerMessage, WorkerMessage, WorkerOutcome } from './protocol';
+
+interface WorkerEntry {
+  path: string;
+  execArgv?: string[];
+}
+
+let cachedEntry: WorkerEntry | null = null;
+
+/** The worker entry this process should start; throws naming the paths it tried. */
+export function workerEntry(): WorkerEntry {
+  if (cachedEntry) return cachedEntry;
+  const override = workerEntryOverride();
+  const builtBesideServer = resolve(dirname(process.argv[1] ?? '.'), '../workers/run-worker.mjs');
+  const source = resolve('workers/run-worker.ts');
+  if (override) cachedEntry = override.endsWith('.ts') ? { path: resolve(override), execArgv: ['--import', 'tsx'] } : { path: resolve(override) };
+  else if (existsSync(builtBesideServer)) cachedEntry = { path: builtBesideServer };
+  else if (existsSync(source)) cachedEntry = { path: source, execArgv: ['--import', 'tsx'] };
+  else throw new Error(`run worker entry not found: looked for ${builtBesideServer} and ${source}; run \`npm run build\``);
+  return cachedEntry;
+}
+
+/** A run executing in a worker thread. */
+export interface WorkerRun {
+  /** The final message; a thread that dies without one answers `failed` (or `cancelled` after a cancel). */
+  outcome: Promise<WorkerOutcome>;
+  /** Asks the worker to stop; terminates the thread if it has not stopped within the grace time. */
+  cancel(): void;
+}
+
+/** Starts `job` in a fresh worker thread; progress messages go to `onProgress`. */
+export function startWorker(job: RunJob, onProgress: (message: Extract<WorkerMessage, { type: 'progress' }>) => void): WorkerRun {
+  const entry = workerEntry();
+  const started = performance.now();
+  const worker = new Worker(entry.path, { workerData: job, execArgv: entry.execArgv });
+  let cancelled = false;
+  let settled = false;
+  let settle!: (message: WorkerOutcome) => void;
+  const outcome = new Promise<WorkerOutcome>((resolveOutcome) => {
+    settle = (message) => {
+      if (settled) return;
+      settled = true;
+      resolveOutcome(message);
+      // The worker has said its last word; its thread only holds resources now.
+      void worker.terminate();
+    };
+  });
+  const seconds = () => (performance.now() - started) / 1000;
+  worker.on('message', (message: WorkerMessage) => {
+    if (message.type === 'progress') {
+      if (!settled) onProgress(message);
+      return;
+    }
+    settle(message);
+  });
+  worker.on('error', (error) => {
+    settle(cancelled ? { type: 'cancelled', seconds: seconds() } : { type: 'failed', error: { message: `run worker crashed: ${error.message}`, stageId: null, kind: 'internal', sampleIndex: null }, seconds: seconds() });
+  });
+  worker.on('exit', (code) => {
+    settle(cancelled ? { type: 'cancelled', seconds: seconds() } : { type: 'failed', error: { message: `run worker stopped unexpectedly (exit code ${code})`, stageId: null, kind: 'internal', sampleIndex: null }, seconds: seconds() });
+  });
+  return {
+    outcome,
+    cancel() {
+      if (settled || cancelled) return;
+      cancelled = true;
+      worker.postMessage({ type: 'cancel' } satisfies SchedulerMessage);
+      const timer = setTimeout(() => {
+        if (!settled) void worker.terminate();
+      }, cancelGraceMs());
+      timer.unref();
+    },
+  };
+}

@@ -1,0 +1,181 @@
+/**
+ * Queue semantics against the built server with one run at a time: the concurrency limit, cancel of
+ * a running worker, failure with stage and sample and its retry, the result cache (hit and miss),
+ * and users taking turns.
+ */
+import { readdirSync, existsSync } from 'node:fs';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { ENGINE_VERSION } from '@/dsp/version';
+import { cacheKey, computationHash } from '@/lib/server/runs/cache-key';
+import type { Client } from '../helpers/client';
+import {
+  blindIqChain, complexTone, createChain, finished, quickChain, signedIn, slowChain, sleep, startRunsServer, submitRun, synthCapture,
+  uploadCapture, waitForRun, type RunsServer,
+} from './runs-helpers';
+
+let server: RunsServer;
+let engineer: Client;
+let operator: Client;
+let bigCapture: string;
+let smallCapture: string;
+
+/** Keys of stored run outputs (objects under run-outputs/). */
+function storedOutputs(): string[] {
+  const root = join(server.dataDir, 'objects', 'run-outputs');
+  if (!existsSync(root)) return [];
+  return readdirSync(root).filter((name) => !name.startsWith('.')).filter((name) => existsSync(join(root, name, 'data')));
+}
+
+beforeAll(async () => {
+  server = await startRunsServer({ env: { QUADRILLE_RUN_CONCURRENCY: '1' } });
+  engineer = await signedIn(server.baseUrl, 'engineer@saltmarsh.test');
+  operator = await signedIn(server.baseUrl, 'operator@saltmarsh.test');
+  bigCapture = await synthCapture(engineer, 'Saltmarsh beacon, long', 0.5);
+  smallCapture = await uploadCapture(engineer, 'Saltmarsh beacon, short', complexTone(65_536, 4e6, 500_000), 4e6);
+});
+afterAll(async () => {
+  await server?.stop();
+});
+
+describe('concurrency and cancel', () => {
+  it('keeps the second run queued while the first runs, and cancel stops a running worker within 2 s', async () => {
+    const slow = await createChain(engineer, slowChain());
+    const wider = await createChain(engineer, { ...slowChain(), stages: [{ ...slowChain().stages[0]!, params: { design: 'window', response: 'lowpass', cutoff: 300_000, taps: 511 } }, slowChain().stages[1]!] });
+    const first = await submitRun(engineer, slow, bigCapture);
+    const second = await submitRun(engineer, wider, bigCapture);
+    expect(first.status).toBe('queued');
+    const running = await waitForRun(engineer, first.id, (run) => run.status === 'running' && run.progress > 0.02, 30_000);
+    expect(running.startedAt).not.toBeNull();
+    expect(running.etaSeconds === null || running.etaSeconds >= 0).toBe(true);
+    // With one slot, the second stays queued however long the first takes.
+    await sleep(500);
+    expect((await engineer.get(`/api/runs/${second.id}`)).body.status).toBe('queued');
+    expect((await engineer.get(`/api/runs/${first.id}`)).body.status).toBe('running');
+
+    // A queued run is cancelled at once.
+    const cancelQueued = await engineer.post(`/api/runs/${second.id}/cancel`);
+    expect(cancelQueued.status).toBe(202);
+    expect(cancelQueued.body.status).toBe('cancelled');
+
+    const asked = Date.now();
+    const cancelRunning = await engineer.post(`/api/runs/${first.id}/cancel`);
+    expect(cancelRunning.status).toBe(202);
+    const cancelled = await waitForRun(engineer, first.id, finished, 5_000);
+    expect(cancelled.status).toBe('cancelled');
+    expect(Date.now() - asked).toBeLessThan(2_000);
+    expect(cancelled.results).toBeUndefined();
+    expect(cancelled.permissions).toEqual({ cancel: false, retry: true });
+    const row = await server.db('runs').where({ id: first.id }).first();
+    expect(row.result_id).toBeNull();
+    await sleep(300);
+    expect(storedOutputs()).toEqual([]);
+    // Cancelling again is a conflict, not a second cancel.
+    expect((await engineer.post(`/api/runs/${first.id}/cancel`)).status).toBe(409);
+  });
+});
+
+describe('failure and retry', () => {
+  it('records the failing stage and sample, and a retry is a new attempt', async () => {
+    const sameIq = await uploadCapture(engineer, 'I equals Q', complexTone(20_000, 4e6, 300_000, { sameIq: true }), 4e6);
+    const chain = await createChain(engineer, blindIqChain(4096));
+    const submitted = await submitRun(engineer, chain, sameIq);
+    const failed = await waitForRun(engineer, submitted.id, finished);
+    expect(failed.status).toBe('failed');
+    expect(failed.error).toMatchObject({ stageId: 'iq', kind: 'iq-correct' });
+    // The head estimate runs once 4096 samples have arrived: the failing block starts at or before sample 4096.
+    expect(failed.error.sampleIndex).toBeGreaterThanOrEqual(0);
+    expect(failed.error.sampleIndex).toBeLessThanOrEqual(4096);
+    expect(failed.error.message).toMatch(/iq/);
+    expect(failed.error.message).toMatch(/sample \d+/);
+    expect(failed.results).toBeUndefined();
+    expect(failed.permissions.retry).toBe(true);
+    expect(await server.db('run_results').where({ cache_key: (await server.db('runs').where({ id: submitted.id }).first()).cache_key }).first()).toBeUndefined();
+
+    const retried = await engineer.post(`/api/runs/${submitted.id}/retry`);
+    expect(retried.status).toBe(202);
+    const attempt = retried.body.runs[0];
+    expect(attempt.id).not.toBe(submitted.id);
+    const second = await waitForRun(engineer, attempt.id, finished);
+    expect(second).toMatchObject({ attempt: 2, retryOf: submitted.id, status: 'failed' });
+    // Someone else may not retry it, and a succeeded run cannot be retried.
+    expect((await operator.post(`/api/runs/${submitted.id}/retry`)).status).toBe(403);
+  });
+});
+
+describe('result cache', () => {
+  it('answers an identical request at once from the cache and misses on a changed parameter', async () => {
+    const chain = await createChain(engineer, quickChain(200_000));
+    const fresh = await submitRun(engineer, chain, smallCapture);
+    expect(fresh.fromCache).toBe(false);
+    const done = await waitForRun(engineer, fresh.id, finished);
+    expect(done.status).toBe('succeeded');
+    expect(done.fromCache).toBe(false);
+    expect(done.results.probes.map((probe: { stageId: string }) => probe.stageId)).toEqual(['psd', 'meas']);
+
+    const started = performance.now();
+    const again = await engineer.post('/api/runs', { chain_id: chain, capture_id: smallCapture });
+    const answeredMs = performance.now() - started;
+    expect(again.status).toBe(202);
+    expect(again.body.runs[0]).toMatchObject({ status: 'succeeded', fromCache: true });
+    expect(again.body.runs[0].id).not.toBe(fresh.id);
+    expect(answeredMs).toBeLessThan(1_000);
+    const cached = (await engineer.get(`/api/runs/${again.body.runs[0].id}`)).body;
+    expect(cached.fromCache).toBe(true);
+    expect(cached.results).toEqual(done.results);
+
+    // Another user asking the same question of a visible chain and capture is answered from the cache too.
+    expect((await operator.post('/api/runs', { chain_id: chain, capture_id: smallCapture })).body.runs[0].fromCache).toBe(true);
+
+    // A renamed copy computes the same: still a hit. A changed cut-off: a miss.
+    const renamed = await createChain(engineer, { ...quickChain(200_000), name: 'Same computation, other name' });
+    expect((await engineer.post('/api/runs', { chain_id: renamed, capture_id: smallCapture })).body.runs[0].fromCache).toBe(true);
+    const changed = await engineer.post(`/api/chains/${chain}/revisions`, { document: quickChain(150_000), message: 'narrower' });
+    expect(changed.status, changed.text).toBe(201);
+    const miss = await submitRun(engineer, chain, smallCapture);
+    expect(miss).toMatchObject({ status: 'queued', fromCache: false });
+    await waitForRun(engineer, miss.id, finished);
+
+    // The key is the computation hash, the capture's sha256 and the engine version: another engine version is another key.
+    const row = await server.db('runs').where({ id: fresh.id }).first();
+    const capture = await server.db('captures').where({ id: smallCapture }).first();
+    expect(row.cache_key).toBe(cacheKey(computationHash(quickChain(200_000)), capture.sha256, ENGINE_VERSION));
+    expect(row.cache_key).not.toBe(cacheKey(computationHash(quickChain(200_000)), capture.sha256, `${ENGINE_VERSION}-next`));
+  });
+
+  it('misses a result stored under another engine version', async () => {
+    const chain = await createChain(engineer, quickChain(120_000));
+    const capture = await server.db('captures').where({ id: smallCapture }).first();
+    const result = await server.db('run_results').first();
+    // File a copy of a real result under the key the previous engine version would have used.
+    await server.db('run_results').insert({
+      ...result,
+      id: '00000000-0000-4000-8000-0000000000e1',
+      cache_key: cacheKey(computationHash(quickChain(120_000)), capture.sha256, '0.9.0'),
+      engine_version: '0.9.0',
+    });
+    const run = await submitRun(engineer, chain, smallCapture);
+    expect(run.fromCache).toBe(false);
+    await waitForRun(engineer, run.id, finished);
+  });
+});
+
+describe('fairness', () => {
+  it("starts another user's single run before the rest of one user's batch", async () => {
+    const slow = await createChain(engineer, slowChain());
+    const batchCaptures: string[] = [];
+    for (const seed of [11, 12, 13]) batchCaptures.push(await synthCapture(engineer, `Batch capture ${seed}`, 0.05, seed));
+    const single = await synthCapture(operator, 'Operator capture', 0.05, 14);
+    const batch = await engineer.post('/api/runs', { chain_id: slow, capture_ids: batchCaptures });
+    expect(batch.status).toBe(202);
+    expect(batch.body.runs).toHaveLength(3);
+    const lone = await submitRun(operator, slow, single);
+    const all = [...batch.body.runs.map((run: { id: string }) => run.id), lone.id];
+    for (const id of all) await waitForRun(engineer, id, finished, 90_000);
+    const rows = await server.db('runs').whereIn('id', all).select('id', 'started_at', 'status');
+    const order = rows.sort((a, b) => (a.started_at < b.started_at ? -1 : 1)).map((row) => row.id);
+    expect(rows.every((row) => row.status === 'succeeded')).toBe(true);
+    // The first of the batch may already have started; the operator's run comes right after it at the latest.
+    expect(order.indexOf(lone.id)).toBeLessThanOrEqual(1);
+  });
+});
