@@ -173,6 +173,8 @@ export const pageActions: Record<string, Action | Audience> = {
   '/account': 'account.update',
   '/captures': 'capture.read',
   '/chains': 'chain.read',
+  '/chains/new': 'chain.create',
+  '/chains/[id]': 'chain.read',
   '/runs': 'run.read',
   '/admin': 'admin.view',
 };

@@ -1,0 +1,291 @@
+/**
+ * The chain notebook (an island rendered only in the browser): loads a chain and its latest
+ * revision, holds the document being edited as the one source of truth for the cells and the
+ * JSON view, checks it on every edit, designs filter responses and previews the chain on the head
+ * of a capture in workers, and saves revisions.
+ */
+import { useCallback, useEffect, useMemo, useState } from 'react';
+import type { Capture, CaptureList } from '@/components/captures/types';
+import { requestJson } from '@/components/forms/api';
+import { getStageDefinition } from '@/dsp/stages/index';
+import type { StreamFormat } from '@/dsp/types';
+import { sameJsonValue } from '@/lib/chain-diff';
+import { chainsApi, type ChainWithRevision } from './api';
+import { analyseDraft } from './analysis';
+import Cells from './Cells';
+import { addStage, duplicateStage, emptyDocument, moveStage, removeStage, setStageParams, toDraft, updateStage, type DraftDocument } from './draft';
+import JsonView from './JsonView';
+import NotebookHeader, { type ViewMode } from './NotebookHeader';
+import PreviewPanel from './PreviewPanel';
+import RevisionsPanel from './RevisionsPanel';
+import type { StageActions } from './StageCell';
+import { usePreview } from './use-preview';
+import { useResponses } from './use-responses';
+import type { PreviewCapture } from './preview-protocol';
+
+interface NotebookProps {
+  chainId: string;
+  user: { id: string; role: string };
+}
+
+const captureKey = (chainId: string) => `quadrille.preview-capture.${chainId}`;
+
+export default function Notebook({ chainId, user }: NotebookProps) {
+  const [chain, setChain] = useState<ChainWithRevision | null>(null);
+  const [loadError, setLoadError] = useState<string | null>(null);
+  const [doc, setDoc] = useState<DraftDocument>(emptyDocument());
+  const [saved, setSaved] = useState<DraftDocument | null>(null);
+  const [viewing, setViewing] = useState<{ revision: number; doc: DraftDocument } | null>(null);
+  const [editedAt, setEditedAt] = useState(0);
+  const [mode, setMode] = useState<ViewMode>(() => (window.innerWidth >= 2200 ? 'split' : 'cells'));
+  const [captures, setCaptures] = useState<Capture[] | null>(null);
+  const [capturesError, setCapturesError] = useState<string>();
+  const [captureId, setCaptureId] = useState<string | null>(null);
+  const [manualInput, setManualInput] = useState<StreamFormat>({ sampleRate: 4e6, sampleType: 'complex' });
+  const [refreshKey, setRefreshKey] = useState(0);
+  const [saving, setSaving] = useState(false);
+  const [message, setMessage] = useState<{ tone: 'error' | 'ok'; text: string } | null>(null);
+  const [jsonProblems, setJsonProblems] = useState<{ count: number; first?: string }>({ count: 0 });
+
+  const loadChain = useCallback(async () => {
+    const r = await chainsApi.get(chainId);
+    if (!r.ok) {
+      setLoadError(r.status === 404 ? 'There is no such chain, or it is private to someone else.' : r.error.message);
+      return;
+    }
+    const draft = toDraft(r.data.revision.document) ?? emptyDocument(r.data.name);
+    setChain(r.data);
+    setDoc(draft);
+    setSaved(draft);
+    setViewing(null);
+    document.title = `${r.data.name} · Chains · Quadrille`;
+  }, [chainId]);
+
+  useEffect(() => {
+    void loadChain();
+    void requestJson<CaptureList>('GET', '/api/captures?pageSize=100&sort=name&order=asc').then((r) => {
+      if (r.ok) setCaptures(r.data.items);
+      else {
+        setCaptures([]);
+        setCapturesError(`Captures could not be listed: ${r.error.message}`);
+      }
+    });
+  }, [loadChain]);
+
+  // Pick the capture used last with this chain, else the first one the chain's first stage accepts.
+  useEffect(() => {
+    if (!captures || captureId !== null || !chain) return;
+    const remembered = localStorage.getItem(captureKey(chainId));
+    const first = getStageDefinition(doc.stages[0]?.kind ?? '');
+    const choice = captures.find((c) => c.id === remembered) ?? captures.find((c) => !first || first.accepts.includes(c.layout)) ?? captures[0];
+    if (choice) setCaptureId(choice.id);
+  }, [captures, chain, chainId, captureId, doc.stages]);
+
+  const capture = captures?.find((c) => c.id === captureId) ?? null;
+  const input: StreamFormat = capture
+    ? { sampleRate: capture.sampleRate, sampleType: capture.layout, ...(capture.centerFrequency !== null ? { centerFrequency: capture.centerFrequency } : {}) }
+    : manualInput;
+  const inputKey = JSON.stringify(input);
+  const stableInput = useMemo(() => input, [inputKey]); // eslint-disable-line react-hooks/exhaustive-deps
+  const previewCapture = useMemo<PreviewCapture | null>(
+    () => (capture ? { id: capture.id, datatype: capture.datatype, layout: capture.layout, sampleRate: capture.sampleRate, centerFrequency: capture.centerFrequency, sampleCount: capture.sampleCount, bytesPerSample: capture.bytesPerSample } : null),
+    [capture],
+  );
+
+  const shown = viewing?.doc ?? doc;
+  const readOnly = viewing !== null || !chain?.permissions.update;
+  const analysis = useMemo(() => analyseDraft(shown, stableInput), [shown, stableInput]);
+  const responses = useResponses(shown, analysis.propagation);
+  const preview = usePreview(analysis.parse.ok ? analysis.parse.document : null, previewCapture, editedAt);
+  const dirty = saved !== null && !sameJsonValue(doc, saved);
+
+  const edit = useCallback((update: (d: DraftDocument) => DraftDocument) => {
+    setDoc((d) => update(d));
+    setEditedAt(performance.now());
+    setMessage(null);
+  }, []);
+
+  const actions = useMemo<StageActions>(
+    () => ({
+      params: (id, params) => edit((d) => setStageParams(d, id, params)),
+      toggle: (id, flag) => edit((d) => updateStage(d, id, (s) => ({ ...s, [flag]: !s[flag] }))),
+      move: (id, delta) => edit((d) => moveStage(d, id, d.stages.findIndex((s) => s.id === id) + delta)),
+      duplicate: (id) => edit((d) => duplicateStage(d, id).doc),
+      remove: (id) => edit((d) => removeStage(d, id)),
+    }),
+    [edit],
+  );
+
+  const onAdd = useCallback(
+    (kind: string) => {
+      const last = analysis.propagation?.[analysis.propagation.length - 1]?.output ?? stableInput;
+      edit((d) => addStage(d, kind, last).doc);
+    },
+    [analysis.propagation, stableInput, edit],
+  );
+
+  const saveBlocked = !analysis.parse.ok ? `Fix ${analysis.errorCount || 'the'} error${analysis.errorCount === 1 ? '' : 's'} first` : !dirty ? 'Nothing to save: no edits since the last revision' : null;
+
+  const save = useCallback(
+    async (text: string) => {
+      if (!chain || saveBlocked) return;
+      setSaving(true);
+      const r = await chainsApi.save(chain.id, { ...doc, name: chain.name }, text);
+      setSaving(false);
+      if (!r.ok) {
+        setMessage({ tone: 'error', text: r.error.message });
+        return;
+      }
+      setChain({ ...chain, latestRevision: r.data.revision, revision: r.data });
+      setSaved(doc);
+      setRefreshKey((k) => k + 1);
+      setMessage({ tone: 'ok', text: `Saved as revision ${r.data.revision}.` });
+    },
+    [chain, doc, saveBlocked],
+  );
+
+  useEffect(() => {
+    const onKey = (event: KeyboardEvent) => {
+      if ((event.ctrlKey || event.metaKey) && event.key.toLowerCase() === 's') {
+        event.preventDefault();
+        if (!readOnly) void save('');
+      }
+    };
+    const onLeave = (event: BeforeUnloadEvent) => {
+      if (dirty) event.preventDefault();
+    };
+    window.addEventListener('keydown', onKey);
+    window.addEventListener('beforeunload', onLeave);
+    return () => {
+      window.removeEventListener('keydown', onKey);
+      window.removeEventListener('beforeunload', onLeave);
+    };
+  }, [save, readOnly, dirty]);
+
+  const view = async (revision: number | null) => {
+    if (revision === null) return setViewing(null);
+    const r = await chainsApi.revision(chainId, revision);
+    if (r.ok) setViewing({ revision, doc: toDraft(r.data.document) ?? emptyDocument() });
+    else setMessage({ tone: 'error', text: r.error.message });
+  };
+
+  const restore = async () => {
+    if (!viewing) return;
+    const r = await chainsApi.restore(chainId, viewing.revision, `Restored revision ${viewing.revision}`);
+    if (!r.ok) return setMessage({ tone: 'error', text: r.error.message });
+    await loadChain();
+    setRefreshKey((k) => k + 1);
+    setMessage({ tone: 'ok', text: `Revision ${viewing.revision} restored as revision ${r.data.revision}.` });
+  };
+
+  const fork = async () => {
+    const r = await chainsApi.fork(chainId);
+    if (r.ok) window.location.href = `/chains/${r.data.id}`;
+    else setMessage({ tone: 'error', text: r.error.message });
+  };
+
+  const patch = async (body: { name?: string; visibility?: 'private' | 'team' }) => {
+    if (!chain) return;
+    const r = await chainsApi.update(chain.id, body);
+    if (!r.ok) return setMessage({ tone: 'error', text: r.error.message });
+    setChain({ ...chain, ...r.data, revision: chain.revision });
+    if (body.name) edit((d) => ({ ...d, name: body.name! }));
+  };
+
+  if (loadError) return <p className="rounded-md border border-danger/40 bg-danger/10 px-3 py-2 text-sm text-danger">{loadError}</p>;
+  if (!chain) return <p className="text-sm text-muted">Loading the chain…</p>;
+
+  const blocked = !analysis.parse.ok ? `The chain has ${analysis.errorCount} error${analysis.errorCount === 1 ? '' : 's'}: the preview waits until they are fixed.` : undefined;
+  const cells = (
+    <Cells
+      doc={shown}
+      input={stableInput}
+      inputLabel={capture ? `from ${capture.name}` : 'typed by hand (no capture)'}
+      propagation={analysis.propagation}
+      stageIssues={analysis.stageIssues}
+      responses={responses}
+      preview={preview}
+      readOnly={readOnly}
+      actions={actions}
+      onAdd={onAdd}
+      onReorder={(id, to) => edit((d) => moveStage(d, id, to))}
+    />
+  );
+  const jsonView = (
+    <div className="flex h-[calc(100vh-12rem)] min-h-[28rem] flex-col gap-1 xl:sticky xl:top-20">
+      <p className={'text-xs ' + (jsonProblems.count ? 'text-danger' : 'text-muted')} data-testid="json-status">
+        {jsonProblems.count ? `${jsonProblems.count} problem${jsonProblems.count > 1 ? 's' : ''}: ${jsonProblems.first}` : 'Valid chain document: edits apply to the cells as you type.'}
+      </p>
+      <JsonView doc={shown} readOnly={readOnly} onApply={(d) => edit(() => d)} onDiagnostics={(count, first) => setJsonProblems({ count, first })} />
+    </div>
+  );
+
+  return (
+    <div data-notebook={chain.id} data-ready>
+      <NotebookHeader
+        chain={chain}
+        isOwner={chain.owner.id === user.id}
+        dirty={dirty}
+        viewing={viewing?.revision ?? null}
+        mode={mode}
+        onMode={setMode}
+        saveBlocked={saveBlocked}
+        saving={saving}
+        onSave={(text) => void save(text)}
+        onRename={(name) => void patch({ name })}
+        onVisibility={(visibility) => void patch({ visibility })}
+        onFork={() => void fork()}
+        onRestore={() => void restore()}
+        onDiscard={() => (viewing ? setViewing(null) : saved && edit(() => saved))}
+        message={message}
+      />
+      <div className="grid items-start gap-4 xl:grid-cols-[minmax(0,1fr)_20rem] 2xl:grid-cols-[minmax(0,1fr)_24rem]">
+        <div className="min-w-0">
+          {mode === 'cells' && cells}
+          {mode === 'json' && jsonView}
+          {mode === 'split' && (
+            <div className="grid items-start gap-4 lg:grid-cols-2">
+              <div className="min-w-0">{cells}</div>
+              <div className="min-w-0">{jsonView}</div>
+            </div>
+          )}
+        </div>
+        <aside className="space-y-4 xl:sticky xl:top-20">
+          <PreviewPanel
+            captures={captures}
+            capturesError={capturesError}
+            captureId={captureId}
+            onCapture={(id) => {
+              setCaptureId(id);
+              if (id) localStorage.setItem(captureKey(chainId), id);
+            }}
+            manualInput={manualInput}
+            onManualInput={setManualInput}
+            preview={preview}
+            blocked={capture ? blocked : undefined}
+          />
+          <IssueSummary errors={analysis.errorCount} warnings={analysis.warningCount} documentIssues={analysis.documentIssues.map((i) => i.message)} />
+          <RevisionsPanel chainId={chain.id} latest={chain.latestRevision} viewing={viewing?.revision ?? null} refreshKey={refreshKey} onView={(n) => void view(n)} />
+        </aside>
+      </div>
+    </div>
+  );
+}
+
+function IssueSummary({ errors, warnings, documentIssues }: { errors: number; warnings: number; documentIssues: string[] }) {
+  return (
+    <section className="rounded-lg border border-line bg-panel p-3 text-xs" aria-label="Checks" data-testid="checks">
+      <p>
+        <span className={errors ? 'font-semibold text-danger' : 'text-ok'}>{errors ? `${errors} error${errors > 1 ? 's' : ''}` : 'No errors'}</span>
+        <span className="text-muted"> · </span>
+        <span className={warnings ? 'text-amber-700 dark:text-amber-400' : 'text-muted'}>{warnings ? `${warnings} warning${warnings > 1 ? 's' : ''}` : 'no warnings'}</span>
+        <span className="text-muted"> (checked against the input format)</span>
+      </p>
+      {documentIssues.map((m) => (
+        <p key={m} className="mt-1 text-danger">
+          {m}
+        </p>
+      ))}
+    </section>
+  );
+}
