@@ -4,6 +4,7 @@ import { usePlotTheme } from '../plots/plot-theme';
 import { Quantity } from '../Quantity';
 import { AnnotationsList } from './AnnotationsList';
 import { BalanceReport } from './BalanceReport';
+import type { QuickLookResult } from './quicklook-analysis';
 import { spectrogramFigure, spectrumFigure, traceFigure } from './quicklook-figures';
 import { readAnnotations, type Capture } from './types';
 import { useQuickLook } from './useQuickLook';
@@ -118,8 +119,7 @@ function PlotCard({ title, note, children }: { title: string; note?: string; chi
   );
 }
 
-function spectrumNote(result: NonNullable<ReturnType<typeof useQuickLook> & { result: unknown }>['result'] | import('./quicklook-analysis').QuickLookResult): string {
-  const r = result as import('./quicklook-analysis').QuickLookResult;
+function spectrumNote(r: QuickLookResult): string {
   return `Welch, ${r.spectrumFftSize}-point Hann, RBW ${formatQuantity(r.spectrum.resolutionBandwidth, 'Hz')}, ${r.spectrum.segments} segments`;
 }
 
