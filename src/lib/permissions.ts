@@ -176,6 +176,8 @@ export const pageActions: Record<string, Action | Audience> = {
   '/chains/new': 'chain.create',
   '/chains/[id]': 'chain.read',
   '/runs': 'run.read',
+  '/runs/[id]': 'run.read',
+  '/runs/compare': 'run.read',
   '/admin': 'admin.view',
 };
 

@@ -1,5 +1,5 @@
 import { Component, lazy, Suspense, useMemo, useState, type ReactNode } from 'react';
-import type { Config, Data, Layout } from 'plotly.js-dist-min';
+import type { Config, Data, Layout, PlotMouseEvent, PlotRelayoutEvent } from 'plotly.js-dist-min';
 import { usePlotTheme, type PlotTheme } from './plot-theme';
 
 // The 4.8 MB Plotly bundle arrives in its own chunk the first time a plot renders.
@@ -16,13 +16,19 @@ export interface PlotProps {
   config?: Partial<Config>;
   /** data-testid of the figure, for browser tests. */
   testId?: string;
+  /** Click on a data point (run page markers). */
+  onClick?: (event: PlotMouseEvent) => void;
+  /** Zoom, pan or a dragged shape. */
+  onRelayout?: (event: PlotRelayoutEvent) => void;
+  /** The graph element once drawn, for Plotly.downloadImage. */
+  onReady?: (graphDiv: HTMLElement) => void;
 }
 
 /**
  * A Plotly plot themed for light and dark, sized to its container, loading Plotly on first use.
  * Must be rendered only in the browser: use it inside a `client:only="react"` island.
  */
-export default function Plot({ label, data, layout, height = 320, config, testId }: PlotProps) {
+export default function Plot({ label, data, layout, height = 320, config, testId, onClick, onRelayout, onReady }: PlotProps) {
   const theme = usePlotTheme();
   const [ready, setReady] = useState(false);
   const themedLayout = useMemo(() => themeLayout(theme, layout ?? {}, height), [theme, layout, height]);
@@ -46,7 +52,12 @@ export default function Plot({ label, data, layout, height = 320, config, testId
             config={fullConfig}
             useResizeHandler
             style={{ width: '100%', height }}
-            onInitialized={() => setReady(true)}
+            onInitialized={(_figure, graphDiv) => {
+              setReady(true);
+              onReady?.(graphDiv);
+            }}
+            onClick={onClick}
+            onRelayout={onRelayout}
           />
         </Suspense>
       </PlotErrorBoundary>

@@ -1,0 +1,80 @@
+/**
+ * All plots of one probe: its spectrum (with markers), spectrogram, I and Q against time and, for
+ * complex output, its constellation. Each plot fetches data reduced to its own width.
+ */
+import { useMemo, useState } from 'react';
+import Plot, { PlotPlaceholder } from '../plots/Plot';
+import { usePlotTheme } from '../plots/plot-theme';
+import { usePlotData, usePlotWidth } from './hooks';
+import { PlotCard } from './PlotCard';
+import { constellationFigure, frequencyAxis, spectrogramFigure, traceFigure } from './run-figures';
+import { SpectrumCard } from './SpectrumCard';
+import type { ResultProbe } from './types';
+
+const HEIGHT = 300;
+
+/** True when the probe has anything to plot (not only readouts). */
+export function hasPlots(probe: ResultProbe): boolean {
+  return Boolean(probe.spectrum || probe.spectrogram || probe.trace || (probe.constellation && probe.constellation.length > 0));
+}
+
+export function ProbePlots({ runId, probe, fileBase }: { runId: string; probe: ResultProbe; fileBase: string }) {
+  const spectrum = probe.spectrum;
+  const others = [probe.spectrogram && 'spectrogram', probe.trace && 'trace', probe.constellation && probe.constellation.length > 0 && 'constellation'].filter(Boolean) as OtherKind[];
+  return (
+    <div className="space-y-4" data-probe={probe.stageId}>
+      {spectrum && <SpectrumCard runId={runId} probe={{ ...probe, spectrum }} fileBase={fileBase} />}
+      {others.length > 0 && (
+        <div className={'grid gap-4 ' + (others.length > 1 ? 'xl:grid-cols-2' : '')}>
+          {others.map((kind) => (
+            <OtherPlotCard key={kind} runId={runId} probe={probe} kind={kind} fileBase={fileBase} />
+          ))}
+        </div>
+      )}
+    </div>
+  );
+}
+
+type OtherKind = 'spectrogram' | 'trace' | 'constellation';
+
+const TITLES: Record<OtherKind, (probe: ResultProbe) => string> = {
+  spectrogram: (p) => `Spectrogram at ${p.stageId}`,
+  trace: (p) => (p.format.sampleType === 'real' ? `Signal against time at ${p.stageId}` : `I and Q against time at ${p.stageId}`),
+  constellation: (p) => `Constellation at ${p.stageId}`,
+};
+
+function OtherPlotCard({ runId, probe, kind, fileBase }: { runId: string; probe: ResultProbe; kind: OtherKind; fileBase: string }) {
+  const theme = usePlotTheme();
+  const [box, width] = usePlotWidth<HTMLDivElement>();
+  const plot = usePlotData(runId, probe.stageId, kind, width);
+  const [graph, setGraph] = useState<HTMLElement | null>(null);
+  const figure = useMemo(() => {
+    const data = plot.data;
+    if (!data) return null;
+    if (data.kind === 'spectrogram') {
+      const f = data.frequencies;
+      return spectrogramFigure(data, frequencyAxis(probe.format, f[0] ?? 0, f[f.length - 1] ?? 1), theme);
+    }
+    if (data.kind === 'trace') return traceFigure(data, theme);
+    if (data.kind === 'constellation') return constellationFigure(data, theme);
+    return null;
+  }, [plot.data, probe.format, theme]);
+  const note = useMemo(() => {
+    const data = plot.data;
+    if (!data) return undefined;
+    if (data.kind === 'spectrogram') return `${data.times.length} rows × ${data.frequencies.length} columns`;
+    if (data.kind === 'trace') return data.samplesPerColumn > 1 ? `min/max of ${data.samplesPerColumn.toLocaleString('en')} samples per column` : 'every sample';
+    if (data.kind === 'constellation') return `${(data.points.length / 2).toLocaleString('en')} samples spread over the run`;
+    return undefined;
+  }, [plot.data]);
+  const title = TITLES[kind](probe);
+  return (
+    <PlotCard ref={box} title={title} note={note} graph={graph} fileName={`${fileBase}-${kind}-${probe.stageId}`} testId={`${kind}-card-${probe.stageId}`}>
+      {figure ? (
+        <Plot label={title} testId={`${kind}-plot-${probe.stageId}`} height={HEIGHT} data={figure.data} layout={figure.layout} onReady={setGraph} />
+      ) : (
+        <PlotPlaceholder height={HEIGHT} text={plot.isError ? `Could not be loaded: ${(plot.error as Error).message}` : 'Loading…'} />
+      )}
+    </PlotCard>
+  );
+}

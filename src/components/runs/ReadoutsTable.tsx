@@ -1,0 +1,71 @@
+import { useMemo } from 'react';
+import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from '@tanstack/react-table';
+import { ReadoutValue } from './ReadoutValue';
+import type { ResultProbe } from './types';
+
+/** One measurement of one probe. */
+export interface ReadoutRow {
+  probe: string;
+  name: string;
+  value: number | null;
+  unit: string;
+}
+
+/** Every readout of every probe, in chain order. */
+export function readoutRows(probes: ResultProbe[]): ReadoutRow[] {
+  return probes.flatMap((probe) => (probe.readouts ?? []).map((r) => ({ probe: probe.stageId, name: r.name, value: r.value, unit: r.unit })));
+}
+
+const column = createColumnHelper<ReadoutRow>();
+
+const columns = [
+  column.accessor('probe', {
+    header: 'Probe',
+    cell: ({ getValue, row, table }) => {
+      // The probe is named once, on the first of its rows.
+      const rows = table.getRowModel().rows;
+      const previous = rows[row.index - 1];
+      return previous && previous.original.probe === getValue() ? null : <span className="font-mono text-xs text-muted">{getValue()}</span>;
+    },
+  }),
+  column.accessor('name', { header: 'Measurement', cell: ({ getValue }) => <span className="whitespace-normal">{getValue()}</span> }),
+  column.accessor('value', {
+    header: 'Value',
+    cell: ({ row }) => <ReadoutValue value={row.original.value} unit={row.original.unit} />,
+    meta: { numeric: true },
+  }),
+];
+
+/** The readouts of a run, one row per measurement, values with their units in the monospace face. */
+export function ReadoutsTable({ probes }: { probes: ResultProbe[] }) {
+  const data = useMemo(() => readoutRows(probes), [probes]);
+  const table = useReactTable({ data, columns, getCoreRowModel: getCoreRowModel() });
+  if (data.length === 0) return <p className="text-sm text-muted">This chain marks no measuring stage as a probe, so the run has no readouts.</p>;
+  return (
+    <table className="w-full text-sm" data-testid="readouts-table">
+      <caption className="sr-only">Readouts of the run</caption>
+      <thead className="border-b border-line text-left text-xs uppercase tracking-wide text-muted">
+        {table.getHeaderGroups().map((group) => (
+          <tr key={group.id}>
+            {group.headers.map((header) => (
+              <th key={header.id} scope="col" className={'py-1.5 pr-3 font-medium last:pr-0 ' + ((header.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric ? 'text-right' : '')}>
+                {flexRender(header.column.columnDef.header, header.getContext())}
+              </th>
+            ))}
+          </tr>
+        ))}
+      </thead>
+      <tbody>
+        {table.getRowModel().rows.map((row) => (
+          <tr key={row.id} className="border-b border-line/60 last:border-0" data-readout={row.original.name}>
+            {row.getVisibleCells().map((cell) => (
+              <td key={cell.id} className={'py-1.5 pr-3 align-baseline last:pr-0 ' + ((cell.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric ? 'text-right' : '')}>
+                {flexRender(cell.column.columnDef.cell, cell.getContext())}
+              </td>
+            ))}
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}

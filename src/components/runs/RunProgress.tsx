@@ -1,0 +1,48 @@
+import { formatDuration } from '@/lib/units';
+import type { RunStatus } from './types';
+
+export interface RunProgressProps {
+  status: RunStatus;
+  /** 0..1. */
+  progress: number;
+  currentStage: string | null;
+  /** Seconds left, or null when not known yet. */
+  etaSeconds: number | null;
+  /** A compact bar for table rows; the full form names the stage and the time left. */
+  compact?: boolean;
+}
+
+/**
+ * Progress of a run: a bar with the percentage, and (full form) the stage working now and an
+ * estimate of the time left. A queued run shows an empty bar with "waiting for a worker".
+ */
+export function RunProgress({ status, progress, currentStage, etaSeconds, compact }: RunProgressProps) {
+  const fraction = status === 'succeeded' ? 1 : Math.min(1, Math.max(0, progress));
+  const percent = Math.floor(fraction * 100);
+  const tone = status === 'failed' ? 'bg-danger' : status === 'cancelled' ? 'bg-muted/60' : status === 'succeeded' ? 'bg-ok' : 'bg-accent';
+  const detail =
+    status === 'queued'
+      ? 'waiting for a worker'
+      : status === 'running'
+        ? [currentStage ? `stage ${currentStage}` : 'starting', etaSeconds !== null ? `about ${formatDuration(etaSeconds)} left` : null].filter(Boolean).join(' · ')
+        : null;
+  return (
+    <div className={compact ? 'w-36' : 'w-full'} data-testid="run-progress" data-progress={fraction.toFixed(3)}>
+      <div className="flex items-center gap-2">
+        <div
+          role="progressbar"
+          aria-label="Run progress"
+          aria-valuemin={0}
+          aria-valuemax={100}
+          aria-valuenow={percent}
+          aria-valuetext={`${percent} %${detail ? `, ${detail}` : ''}`}
+          className={'relative flex-1 overflow-hidden rounded-full bg-line/70 ' + (compact ? 'h-1.5' : 'h-2.5')}
+        >
+          <div className={'h-full rounded-full transition-[width] duration-500 ease-out ' + tone} style={{ width: `${fraction * 100}%` }} />
+        </div>
+        <span className={'w-10 text-right font-mono tabular-nums ' + (compact ? 'text-xs text-muted' : 'text-sm')}>{percent} %</span>
+      </div>
+      {detail && <p className={'mt-1 truncate text-muted ' + (compact ? 'text-[0.7rem]' : 'text-sm')}>{detail}</p>}
+    </div>
+  );
+}

@@ -1,0 +1,121 @@
+import { useCallback, useMemo, useState } from 'react';
+import type { PlotMouseEvent, PlotRelayoutEvent } from 'plotly.js-dist-min';
+import Plot, { PlotPlaceholder } from '../plots/Plot';
+import { usePlotTheme } from '../plots/plot-theme';
+import { formatQuantity } from '@/lib/units';
+import { usePlotData, usePlotWidth } from './hooks';
+import { MarkerPanel } from './MarkerPanel';
+import { markerAt, markerAtBin, medianLevel, type Marker, type MarkerName } from './markers';
+import { PlotCard } from './PlotCard';
+import { fromAxis, frequencyAxis, MARKER_SHAPES, spectrumFigure } from './run-figures';
+import type { ResultProbe } from './types';
+
+const HEIGHT = 340;
+
+export interface SpectrumCardProps {
+  runId: string;
+  /** The probe with its full-resolution spectrum (from the run's results). */
+  probe: ResultProbe & { spectrum: NonNullable<ResultProbe['spectrum']> };
+  fileBase: string;
+}
+
+/**
+ * A probe's spectrum: the reduced trace from the plot endpoint, its peak, the noise floor (median
+ * of the full spectrum) and markers A and B placed by clicking or dragging, read off the
+ * full-resolution bins.
+ */
+export function SpectrumCard({ runId, probe, fileBase }: SpectrumCardProps) {
+  const theme = usePlotTheme();
+  const [box, width] = usePlotWidth<HTMLDivElement>();
+  const plot = usePlotData(runId, probe.stageId, 'spectrum', width);
+  const [graph, setGraph] = useState<HTMLElement | null>(null);
+  const [markers, setMarkers] = useState<Partial<Record<MarkerName, Marker>>>({});
+  const [next, setNext] = useState<MarkerName>('A');
+  const full = probe.spectrum;
+  const noiseFloor = useMemo(() => medianLevel(full.levels), [full.levels]);
+  const axis = useMemo(
+    () => frequencyAxis(probe.format, full.frequencies[0] ?? 0, full.frequencies[full.frequencies.length - 1] ?? 1),
+    [probe.format, full.frequencies],
+  );
+  const figure = useMemo(() => (plot.data ? spectrumFigure({ data: plot.data, axis, noiseFloor, markers, theme }) : null), [plot.data, axis, noiseFloor, markers, theme]);
+
+  const place = useCallback(
+    (name: MarkerName, marker: Marker) => {
+      setMarkers((m) => ({ ...m, [name]: marker }));
+    },
+    [],
+  );
+
+  const onClick = useCallback(
+    (event: PlotMouseEvent) => {
+      const point = event.points.find((p) => p.curveNumber === 0);
+      if (!point || !plot.data) return;
+      // The reduced trace keeps each column's highest bin at its true frequency, so the clicked
+      // point is a bin of the full spectrum.
+      const frequency = plot.data.frequencies[point.pointIndex];
+      if (frequency === undefined) return;
+      place(next, markerAt(full, frequency));
+      setNext(next === 'A' ? 'B' : 'A');
+    },
+    [plot.data, full, next, place],
+  );
+
+  const onRelayout = useCallback(
+    (event: PlotRelayoutEvent) => {
+      const changes = event as Record<string, unknown>;
+      MARKER_SHAPES.forEach((name, index) => {
+        const x = changes[`shapes[${index}].x0`];
+        if (typeof x === 'number') place(name, markerAt(full, fromAxis(axis, x)));
+      });
+    },
+    [full, axis, place],
+  );
+
+  const peak = full.peak;
+  const note = (
+    <>
+      RBW {formatQuantity(full.resolutionBandwidth, 'Hz')} · {full.segments} segments · peak{' '}
+      {peak.level !== null ? `${formatQuantity(peak.frequency + axis.offset, 'Hz', { significant: 9 })} at ${formatQuantity(peak.level, full.unit, { decimals: 1 })}` : 'none'}
+      {noiseFloor !== null && <> · noise floor {formatQuantity(noiseFloor, full.unit, { decimals: 1 })} (median)</>}
+      {plot.data && <> · {plot.data.frequencies.length.toLocaleString('en')} of {full.frequencies.length.toLocaleString('en')} bins drawn</>}
+    </>
+  );
+
+  return (
+    <PlotCard ref={box} title={`Spectrum at ${probe.stageId}`} note={note} graph={graph} fileName={`${fileBase}-spectrum-${probe.stageId}`} testId={`spectrum-card-${probe.stageId}`}>
+      {figure ? (
+        <Plot
+          label={`Spectrum at ${probe.stageId}`}
+          testId={`spectrum-plot-${probe.stageId}`}
+          height={HEIGHT}
+          data={figure.data}
+          layout={figure.layout}
+          config={{ edits: { shapePosition: true }, doubleClick: 'reset' }}
+          onClick={onClick}
+          onRelayout={onRelayout}
+          onReady={setGraph}
+        />
+      ) : (
+        <PlotPlaceholder height={HEIGHT} text={plot.isError ? `The spectrum could not be loaded: ${(plot.error as Error).message}` : 'Loading the spectrum…'} />
+      )}
+      <MarkerPanel
+        markers={markers}
+        next={next}
+        unit={full.unit}
+        offset={axis.offset}
+        onNext={setNext}
+        onStep={(name, step) => {
+          const marker = markers[name];
+          if (marker) place(name, markerAtBin(full, marker.index + step));
+        }}
+        onPeak={(name) => {
+          if (peak.level !== null) place(name, markerAt(full, peak.frequency));
+        }}
+        onClear={() => {
+          setMarkers({});
+          setNext('A');
+        }}
+      />
+    </PlotCard>
+  );
+}

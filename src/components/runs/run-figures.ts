@@ -1,0 +1,254 @@
+/**
+ * Plotly figures of a run's probes: spectrum with peak, noise floor and the two markers;
+ * spectrogram as a heatmap; I and Q against time as min/max bands; constellation. Frequencies are
+ * RF when the probed stream knows its centre frequency, else offsets from its 0 Hz.
+ */
+import type { Data, Layout, Shape } from 'plotly.js-dist-min';
+import { axisScale, axisTitle, scaled, type AxisScale } from '../plots/axes';
+import type { PlotTheme } from '../plots/plot-theme';
+import type { Marker, MarkerName } from './markers';
+import type { ConstellationPlotData, SpectrogramPlotData, SpectrumPlotData, TracePlotData } from './types';
+import type { StreamFormat } from '@/dsp/types';
+
+export interface Figure {
+  data: Data[];
+  layout: Partial<Layout>;
+}
+
+/** The frequency axis of a probe: the offset added to stream frequencies (Hz), the unit scale and the title. */
+export interface FrequencyAxis {
+  offset: number;
+  scale: AxisScale;
+  title: string;
+}
+
+/** Frequency axis spanning `low`..`high` (Hz from the stream's 0 Hz) for a stream of `format`. */
+export function frequencyAxis(format: StreamFormat, low: number, high: number): FrequencyAxis {
+  const offset = format.centerFrequency ?? 0;
+  const scale = axisScale(low + offset, high + offset, 'Hz');
+  const label = format.centerFrequency !== undefined ? 'Frequency' : format.sampleType === 'complex' ? 'Frequency offset' : 'Frequency';
+  return { offset, scale, title: axisTitle(label, scale) };
+}
+
+/** Plot x of a stream frequency (Hz). */
+export function toAxis(axis: FrequencyAxis, frequency: number): number {
+  return (frequency + axis.offset) / axis.scale.divisor;
+}
+
+/** Stream frequency (Hz) of a plot x. */
+export function fromAxis(axis: FrequencyAxis, x: number): number {
+  return x * axis.scale.divisor - axis.offset;
+}
+
+/** Colour of the markers: the third series colour, apart from the trace and the peak. */
+export function markerColour(theme: PlotTheme): string {
+  return theme.series[2] ?? theme.ink;
+}
+
+export interface SpectrumFigureInput {
+  data: SpectrumPlotData;
+  axis: FrequencyAxis;
+  /** Median level in the spectrum's unit, or null. */
+  noiseFloor: number | null;
+  markers: Partial<Record<MarkerName, Marker>>;
+  theme: PlotTheme;
+}
+
+/** Names of the marker shapes in layout order, so a dragged shape's index finds its marker. */
+export const MARKER_SHAPES: MarkerName[] = ['A', 'B'];
+
+/** Spectrum with its peak, a dashed noise-floor line and the markers as draggable vertical lines. */
+export function spectrumFigure({ data, axis, noiseFloor, markers, theme }: SpectrumFigureInput): Figure {
+  const x = scaled(data.frequencies, axis.scale, axis.offset);
+  const unit = data.unit;
+  const traces: Data[] = [
+    {
+      type: 'scatter',
+      mode: 'lines',
+      name: 'spectrum',
+      x,
+      y: data.levels,
+      line: { color: theme.accent, width: 1.25 },
+      hovertemplate: `%{x:.7~f} ${axis.scale.unit}<br>%{y:.2f} ${unit}<extra></extra>`,
+    },
+  ];
+  if (noiseFloor !== null && x.length > 1) {
+    traces.push({
+      type: 'scatter',
+      mode: 'lines',
+      name: 'noise floor',
+      x: [x[0], x[x.length - 1]],
+      y: [noiseFloor, noiseFloor],
+      line: { color: theme.muted, width: 1, dash: 'dash' },
+      hoverinfo: 'skip',
+    });
+  }
+  if (data.peak.level !== null) {
+    traces.push({
+      type: 'scatter',
+      mode: 'text+markers',
+      name: 'peak',
+      x: [toAxis(axis, data.peak.frequency)],
+      y: [data.peak.level],
+      text: ['peak'],
+      textposition: 'top center',
+      textfont: { size: 11, color: theme.series[1] },
+      marker: { symbol: 'triangle-down', size: 10, color: theme.series[1] },
+      hoverinfo: 'skip',
+      cliponaxis: false,
+    });
+  }
+  const colour = markerColour(theme);
+  const shapes: Partial<Shape>[] = [];
+  const placed = MARKER_SHAPES.filter((name) => markers[name]);
+  for (const name of MARKER_SHAPES) {
+    const marker = markers[name];
+    // A shape per marker name keeps shape indices stable, so a drag maps back to its marker.
+    const at = marker ? toAxis(axis, marker.frequency) : x[0] ?? 0;
+    shapes.push({
+      type: 'line',
+      xref: 'x',
+      yref: 'paper',
+      x0: at,
+      x1: at,
+      y0: 0,
+      y1: 1,
+      visible: marker !== undefined,
+      line: { color: colour, width: 1.25, dash: name === 'A' ? 'dot' : 'dashdot' },
+    });
+  }
+  if (placed.length > 0) {
+    traces.push({
+      type: 'scatter',
+      mode: 'text+markers',
+      name: 'markers',
+      x: placed.map((name) => toAxis(axis, markers[name]!.frequency)),
+      y: placed.map((name) => markers[name]!.level),
+      text: placed,
+      textposition: 'top right',
+      textfont: { size: 12, color: colour },
+      marker: { symbol: 'diamond', size: 9, color: colour, line: { width: 1, color: theme.panel } },
+      hoverinfo: 'skip',
+      cliponaxis: false,
+    });
+  }
+  return {
+    data: traces,
+    layout: {
+      showlegend: false,
+      hovermode: 'x',
+      uirevision: 'spectrum',
+      margin: { l: 60, r: 16, t: 16, b: 44 },
+      xaxis: { title: { text: axis.title }, zeroline: false },
+      yaxis: { title: { text: `Level (${unit})` }, zeroline: false },
+      shapes: shapes as Layout['shapes'],
+    },
+  };
+}
+
+/** Level below which a fraction `p` of the finite pixels lie (floor of the colour scale). */
+function percentile(levels: (number | null)[][], p: number): number | undefined {
+  const all: number[] = [];
+  for (const row of levels) for (const v of row) if (v !== null && Number.isFinite(v)) all.push(v);
+  if (all.length === 0) return undefined;
+  all.sort((a, b) => a - b);
+  return all[Math.min(all.length - 1, Math.floor(p * all.length))];
+}
+
+/** Spectrogram as a heatmap: frequency across, time up, level as colour. */
+export function spectrogramFigure(data: SpectrogramPlotData, axis: FrequencyAxis, theme: PlotTheme): Figure {
+  const duration = data.times.length > 1 ? data.times[data.times.length - 1]! : 1e-3;
+  const timeScale = axisScale(0, duration, 's');
+  return {
+    data: [
+      {
+        type: 'heatmap',
+        x: scaled(data.frequencies, axis.scale, axis.offset),
+        y: scaled(data.times, timeScale),
+        z: data.levels,
+        colorscale: 'Viridis',
+        zmin: percentile(data.levels, 0.05),
+        colorbar: {
+          title: { text: data.unit, side: 'right', font: { size: 11, color: theme.muted } },
+          thickness: 10,
+          outlinewidth: 0,
+          tickfont: { family: '"JetBrains Mono Variable", ui-monospace, monospace', size: 10, color: theme.muted },
+        },
+        hovertemplate: `%{x:.7~f} ${axis.scale.unit}<br>%{y:.4~f} ${timeScale.unit}<br>%{z:.1f} ${data.unit}<extra></extra>`,
+      } as Data,
+    ],
+    layout: {
+      uirevision: 'spectrogram',
+      xaxis: { title: { text: axis.title }, showgrid: false, zeroline: false },
+      yaxis: { title: { text: axisTitle('Time', timeScale) }, showgrid: false, zeroline: false },
+    },
+  };
+}
+
+/** Names of the channels of a trace by stream type. */
+function channelNames(format: StreamFormat): string[] {
+  if (format.sampleType === 'complex') return ['I', 'Q'];
+  if (format.sampleType === 'real-pair') return ['Channel 0 (I)', 'Channel 1 (Q)'];
+  return ['Signal'];
+}
+
+/** I and Q (or the real signal) against time, a min/max band per pixel column and channel. */
+export function traceFigure(data: TracePlotData, theme: PlotTheme): Figure {
+  const columns = data.channels[0]?.min.length ?? 0;
+  const timeScale = axisScale(0, (columns * data.samplesPerColumn) / data.sampleRate || 1e-3, 's');
+  const times = new Array<number>(columns);
+  for (let c = 0; c < columns; c++) times[c] = (c * data.samplesPerColumn) / data.sampleRate / timeScale.divisor;
+  const names = channelNames(data.format);
+  const traces: Data[] = [];
+  data.channels.forEach((channel, index) => {
+    const colour = theme.series[index % theme.series.length]!;
+    const fill = colour.replace(/, 1\)$/, ', 0.35)');
+    const name = names[index] ?? `Channel ${index}`;
+    const hover = `${name}: %{y:.4f} FS at %{x:.5~f} ${timeScale.unit}<extra></extra>`;
+    if (data.samplesPerColumn <= 1) {
+      traces.push({ type: 'scatter', mode: 'lines', name, x: times, y: channel.max, line: { color: colour, width: 1 }, hovertemplate: hover });
+      return;
+    }
+    traces.push({ type: 'scatter', mode: 'lines', name, legendgroup: name, showlegend: false, x: times, y: channel.min, line: { color: colour, width: 0.75 }, hovertemplate: hover });
+    traces.push({ type: 'scatter', mode: 'lines', name, legendgroup: name, x: times, y: channel.max, fill: 'tonexty', fillcolor: fill, line: { color: colour, width: 0.75 }, hovertemplate: hover });
+  });
+  return {
+    data: traces,
+    layout: {
+      showlegend: true,
+      uirevision: 'trace',
+      hovermode: 'x',
+      xaxis: { title: { text: axisTitle('Time', timeScale) }, zeroline: false },
+      yaxis: { title: { text: 'Amplitude (FS)' }, zeroline: true },
+    },
+  };
+}
+
+/** Constellation: Q against I with equal scales, WebGL points. */
+export function constellationFigure(data: ConstellationPlotData, theme: PlotTheme): Figure {
+  const i: number[] = [];
+  const q: number[] = [];
+  for (let k = 0; k + 1 < data.points.length; k += 2) {
+    i.push(data.points[k]!);
+    q.push(data.points[k + 1]!);
+  }
+  return {
+    data: [
+      {
+        type: 'scattergl',
+        mode: 'markers',
+        name: 'samples',
+        x: i,
+        y: q,
+        marker: { size: 3, color: theme.accent, opacity: 0.55 },
+        hovertemplate: 'I %{x:.4f}<br>Q %{y:.4f}<extra></extra>',
+      },
+    ],
+    layout: {
+      showlegend: false,
+      uirevision: 'constellation',
+      xaxis: { title: { text: 'I (FS)' }, zeroline: true, constrain: 'domain' },
+      yaxis: { title: { text: 'Q (FS)' }, zeroline: true, scaleanchor: 'x', scaleratio: 1 },
+    },
+  };
+}
