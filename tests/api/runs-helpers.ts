@@ -105,14 +105,14 @@ export async function signedIn(baseUrl: string, email: string, password = demoPa
 type Stage = { id: string; kind: string; params: Record<string, unknown>; probe?: boolean };
 
 /** A quick chain for 4 Msps complex input: mix to 0 Hz, low-pass, decimate by 8, spectrum and readouts. */
-export function quickChain(cutoff = 200_000): { version: 1; name: string; stages: Stage[] } {
+export function quickChain(cutoff = 200_000, probeDecimated = false): { version: 1; name: string; stages: Stage[] } {
   return {
     version: 1,
     name: 'Beacon down-conversion',
     stages: [
       { id: 'nco', kind: 'mix', params: { frequency: -500_000 } },
       { id: 'lp', kind: 'filter', params: { design: 'window', response: 'lowpass', cutoff, taps: 127 } },
-      { id: 'dec', kind: 'decimate', params: { factor: 8, antiAlias: false } },
+      { id: 'dec', kind: 'decimate', params: { factor: 8, antiAlias: false }, ...(probeDecimated ? { probe: true } : {}) },
       { id: 'psd', kind: 'spectrum', params: { fftSize: 1024 }, probe: true },
       { id: 'meas', kind: 'measure', params: {} },
     ],
