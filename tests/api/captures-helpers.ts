@@ -42,7 +42,7 @@ export async function send(
   const response = await fetch(client.baseUrl + path, init);
   const bytes = new Uint8Array(await response.arrayBuffer());
   let body: unknown = null;
-  if ((response.headers.get('content-type') ?? '').includes('json')) body = JSON.parse(new TextDecoder().decode(bytes));
+  if (bytes.length > 0 && (response.headers.get('content-type') ?? '').includes('json')) body = JSON.parse(new TextDecoder().decode(bytes));
   return { status: response.status, headers: response.headers, body, bytes };
 }
 

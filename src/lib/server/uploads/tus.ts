@@ -147,7 +147,7 @@ export async function handleTus(request: Request, user: SessionUser): Promise<Re
     const id = decodeURIComponent(new URL(request.url).pathname.split('/').pop() ?? '');
     await getDb()('capture_uploads').where({ id, owner_id: user.id }).delete();
   }
-  if (response.status >= 400 && response.headers.get('content-type') === null) {
+  if (response.status >= 400 && !(response.headers.get('content-type') ?? '').includes('json')) {
     // The protocol library answers its own errors in plain text; the API speaks JSON.
     const text = (await response.text()).trim();
     const body = text.startsWith('{') ? text : JSON.stringify({ error: { code: 'upload_error', message: text, field: null } });
