@@ -6,6 +6,7 @@
 import { useState } from 'react';
 import { buttonPrimary, buttonSecondary, buttonSmall } from '@/components/ui';
 import type { Chain } from './api';
+import { RunOnCapturesButton } from '@/components/runs/RunOnCapturesDialog';
 
 export type ViewMode = 'cells' | 'json' | 'split';
 
@@ -119,6 +120,9 @@ export default function NotebookHeader(props: NotebookHeaderProps) {
               </button>
             ))}
           </div>
+          {chain.permissions.run && (
+            <RunOnCapturesButton chainId={chain.id} chainName={chain.name} revision={viewing ?? chain.latestRevision} unsavedEdits={dirty && viewing === null} className={buttonSecondary + ' py-1.5 text-xs'} />
+          )}
           {chain.permissions.fork && (
             <button type="button" className={buttonSecondary + ' py-1.5 text-xs'} onClick={onFork}>
               Fork
