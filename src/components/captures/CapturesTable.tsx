@@ -268,7 +268,7 @@ function CapturesTableBody({ initialList }: CapturesTableProps) {
           setDeleteError(null);
         }}
       >
-        <p>The samples and the metadata are removed for good; runs that used them keep their results.</p>
+        <p>Their samples and metadata are removed for good.</p>
         <ul className="max-h-48 list-disc overflow-y-auto pl-5 text-ink">
           {toDelete?.map((c) => (
             <li key={c.id}>{c.name}</li>

@@ -1,0 +1,31 @@
+import { useState } from 'react';
+import { buttonSecondary } from '../ui';
+import { deleteCapture } from './api';
+import { ConfirmDialog } from './ConfirmDialog';
+
+/** Delete button of the capture page, with confirmation; goes back to the list afterwards. */
+export default function DeleteCaptureButton({ id, name }: { id: string; name: string }) {
+  const [open, setOpen] = useState(false);
+  const [busy, setBusy] = useState(false);
+  const [error, setError] = useState<string | null>(null);
+  async function confirm() {
+    setBusy(true);
+    setError(null);
+    const result = await deleteCapture(id);
+    setBusy(false);
+    if (!result.ok) return setError(result.error.message);
+    window.location.assign('/captures');
+  }
+  return (
+    <>
+      <button type="button" className={buttonSecondary + ' text-danger'} onClick={() => setOpen(true)}>
+        Delete…
+      </button>
+      <ConfirmDialog open={open} title="Delete this capture?" confirmLabel="Delete capture" busy={busy} error={error} onConfirm={confirm} onCancel={() => setOpen(false)}>
+        <p>
+          <span className="font-medium text-ink">{name}</span>: its samples and metadata are removed for good.
+        </p>
+      </ConfirmDialog>
+    </>
+  );
+}
