@@ -10,9 +10,12 @@ import { parentPort, workerData } from 'node:worker_threads';
 import { createObjectStore } from '@/lib/server/storage';
 import type { RunJob, SchedulerMessage, WorkerMessage } from '@/lib/server/runs/protocol';
 import { executeRun } from './execute-run';
+import { niceThisThread } from './thread-priority';
 
 if (!parentPort) throw new Error('run-worker must be started as a worker thread');
 const port = parentPort;
+// Runs are background work: the web server's main thread must stay quick while they execute.
+niceThisThread((workerData as RunJob).niceness);
 const controller = new AbortController();
 
 port.on('message', (message: SchedulerMessage) => {

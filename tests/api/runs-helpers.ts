@@ -1,98 +1,14 @@
 /**
- * Shared pieces of the runs API tests: a server started on a data folder that outlives it (for the
- * restart test), signed-in clients, captures made through the upload and synthesizer endpoints,
- * chains made through the chains API, and waiting for a run to reach a status.
+ * Shared pieces of the runs API tests: signed-in clients, captures made through the upload and
+ * synthesizer endpoints, chains made through the chains API, and waiting for a run to reach a
+ * status. The server itself is started by runs-server.ts (also used by the benchmark).
  */
-import { spawn, type ChildProcess } from 'node:child_process';
-import { existsSync, mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
 import { expect } from 'vitest';
-import type { Knex } from 'knex';
-import { openDb } from '@/lib/server/db';
-import { migrateToLatest } from '@/lib/server/db/migration-source';
-import { demoPassword, seedDemo } from '@/lib/server/seed';
+import { demoPassword } from '@/lib/server/seed';
 import { Client } from '../helpers/client';
-import { freePort } from '../helpers/server';
+import { sleep } from './runs-server';
 
-/** The build under test: dist/ (npm test builds it), or QUADRILLE_TEST_DIST for a private build. */
-const distDir = resolve(process.env.QUADRILLE_TEST_DIST ?? 'dist');
-const entry = join(distDir, 'server/entry.mjs');
-
-/** A built server on a data folder the test owns; it may be killed and started again on the same folder. */
-export interface RunsServer {
-  baseUrl: string;
-  dataDir: string;
-  db: Knex;
-  process: ChildProcess;
-  /** Everything the server printed. */
-  output(): string;
-  /** Kills the process (SIGKILL: no chance to clean up) and waits for it to exit. */
-  kill(): Promise<void>;
-  /** Stops the process; with `keepData` the folder and database handle stay for a restart. */
-  stop(keepData?: boolean): Promise<void>;
-}
-
-/** Starts the built server on `dataDir` (a fresh folder, migrated and seeded, when absent). */
-export async function startRunsServer(options: { dataDir?: string; env?: Record<string, string> } = {}): Promise<RunsServer> {
-  if (!existsSync(entry)) throw new Error('dist/server/entry.mjs is missing: run `npm run build` first (npm test does).');
-  if (!existsSync(join(distDir, 'workers/run-worker.mjs'))) throw new Error('dist/workers/run-worker.mjs is missing: run `npm run build` first.');
-  const dataDir = options.dataDir ?? mkdtempSync(join(tmpdir(), 'quadrille-runs-'));
-  const db = openDb(dataDir);
-  if (!options.dataDir) {
-    await migrateToLatest(db);
-    await seedDemo(db);
-  }
-  const port = await freePort();
-  const child = spawn(process.execPath, [entry], {
-    env: { ...process.env, QUADRILLE_RUN_CONCURRENCY: '1', ...options.env, QUADRILLE_DATA_DIR: dataDir, HOST: '127.0.0.1', PORT: String(port), NODE_ENV: 'test' },
-    stdio: ['ignore', 'pipe', 'pipe'],
-  });
-  let output = '';
-  child.stdout?.on('data', (chunk) => (output += chunk));
-  child.stderr?.on('data', (chunk) => (output += chunk));
-  const baseUrl = `http://127.0.0.1:${port}`;
-  const deadline = Date.now() + 30_000;
-  for (;;) {
-    if (child.exitCode !== null) throw new Error(`server exited with code ${child.exitCode}\n${output}`);
-    try {
-      if ((await fetch(`${baseUrl}/api/health`)).ok) break;
-    } catch {
-      // Not listening yet.
-    }
-    if (Date.now() > deadline) {
-      child.kill('SIGKILL');
-      throw new Error(`server did not answer within 30 s\n${output}`);
-    }
-    await sleep(100);
-  }
-  const exited = () => new Promise<void>((done) => (child.exitCode !== null || child.signalCode !== null ? done() : child.once('exit', () => done())));
-  return {
-    baseUrl,
-    dataDir,
-    db,
-    process: child,
-    output: () => output,
-    async kill() {
-      child.kill('SIGKILL');
-      await exited();
-    },
-    async stop(keepData = false) {
-      if (child.exitCode === null && child.signalCode === null) {
-        child.kill('SIGTERM');
-        await exited();
-      }
-      if (!keepData) {
-        await db.destroy();
-        rmSync(dataDir, { recursive: true, force: true });
-      }
-    },
-  };
-}
-
-export function sleep(ms: number): Promise<void> {
-  return new Promise((wake) => setTimeout(wake, ms));
-}
+export { startRunsServer, sleep, type RunsServer } from './runs-server';
 
 /** A client signed in as `email` (a demo account unless a password is given). */
 export async function signedIn(baseUrl: string, email: string, password = demoPassword): Promise<Client> {

@@ -6,6 +6,7 @@
  *   QUADRILLE_RUN_MAX_PENDING        queued + running runs one user may have (default 100)
  *   QUADRILLE_RUN_PROGRESS_MS        least time between two progress updates of a run (default 200 ms)
  *   QUADRILLE_RUN_CANCEL_GRACE_MS    time a cancelled worker gets to stop before it is terminated (default 1500 ms)
+ *   QUADRILLE_RUN_NICE               nice value of run worker threads, 0..19 (default 19; Linux only)
  *   QUADRILLE_SSE_HEARTBEAT_MS       interval of the keep-alive comment on event streams (default 15000 ms)
  *   QUADRILLE_RUN_WORKER             path of the worker entry, overriding the built-in lookup
  */
@@ -47,6 +48,13 @@ export function progressIntervalMs(): number {
 /** Time (ms) a cancelled worker gets to stop on its own before its thread is terminated. */
 export function cancelGraceMs(): number {
   return readCount('QUADRILLE_RUN_CANCEL_GRACE_MS', 1500, 0);
+}
+
+/** Nice value of run worker threads (0..19): higher lets the web server's requests go first. */
+export function workerNiceness(): number {
+  const nice = readCount('QUADRILLE_RUN_NICE', 19, 0);
+  if (nice > 19) throw new RunConfigError('QUADRILLE_RUN_NICE', `must be 0 to 19, got "${nice}"`);
+  return nice;
 }
 
 /** Interval (ms) of the keep-alive comment on a run's event stream. */

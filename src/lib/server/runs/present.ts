@@ -1,7 +1,7 @@
 /**
  * Shapes runs for API answers (the contract the run pages build on): never the row, so storage
  * keys and cache keys cannot leak. An admin looking at the whole queue sees other users' private
- * runs with their chain and capture names withheld.
+ * runs with the names of their private chains and captures withheld.
  */
 import { access, can, type Actor } from '@/lib/permissions';
 import { finishedStatuses, flag, runResource, type RunStatus, type RunView } from './rows';
@@ -52,6 +52,11 @@ export function estimateSecondsLeft(startedAt: string | null, progress: number, 
   return Math.max(0, Math.round((elapsed * (1 - progress)) / progress));
 }
 
+/** Whether `viewer` may see an item's name: its own, a team item, or any item of a run they may read. */
+function nameVisible(viewer: Actor, runVisible: boolean, ownerId: string | null, visibility: 'private' | 'team' | null): boolean {
+  return runVisible || ownerId === viewer.id || visibility === 'team';
+}
+
 /** The run as `viewer` sees it, with what `viewer` may do to it. */
 export function presentRun(run: RunView, viewer: Actor, results?: unknown): PresentedRun {
   const resource = runResource(run);
@@ -60,8 +65,15 @@ export function presentRun(run: RunView, viewer: Actor, results?: unknown): Pres
   const owns = can(viewer, 'run.cancel', resource);
   const presented: PresentedRun = {
     id: run.id,
-    chain: { id: run.chain_id, name: visible ? run.chain_name : 'Private chain', revision: run.chain_revision },
-    capture: { id: run.capture_id, name: visible ? run.capture_name : 'Private capture' },
+    chain: {
+      id: run.chain_id,
+      name: nameVisible(viewer, visible, run.chain_owner_id, run.chain_visibility) ? run.chain_name : 'Private chain',
+      revision: run.chain_revision,
+    },
+    capture: {
+      id: run.capture_id,
+      name: nameVisible(viewer, visible, run.capture_owner_id, run.capture_visibility) ? run.capture_name : 'Private capture',
+    },
     status: run.status,
     progress: Number(run.progress),
     currentStage: run.current_stage,

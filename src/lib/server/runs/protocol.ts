@@ -28,6 +28,8 @@ export interface RunJob {
   outputKey: string;
   /** Least time (ms) between two progress messages. */
   progressIntervalMs: number;
+  /** Nice value (0..19) the worker thread runs at, so requests keep priority over runs. */
+  niceness: number;
 }
 
 /** Where and why a run failed: `stageId`/`kind` name the stage (null, 'input' for the capture itself). */

@@ -17,7 +17,7 @@ import { findRevision } from '../chains/rows';
 import { quotaOf } from '../quota';
 import type { ObjectStore } from '../storage';
 import { cacheKey, computationHash } from './cache-key';
-import { progressIntervalMs, runConcurrency } from './config';
+import { progressIntervalMs, runConcurrency, workerNiceness } from './config';
 import { pickNextRun, type QueuedRun } from './fairness';
 import type { RunJob } from './protocol';
 import type { RunRow } from './rows';
@@ -175,6 +175,7 @@ export class RunScheduler {
       },
       outputKey,
       progressIntervalMs: progressIntervalMs(),
+      niceness: workerNiceness(),
     };
     const active = this.active.get(runId)!;
     const worker = startWorker(job, (message) => {
