@@ -10,7 +10,7 @@ import { FormatError, SampleDecoder, parseDatatype } from '@/dsp/formats';
 import type { StreamFormat } from '@/dsp/types';
 import { ENGINE_VERSION } from '@/dsp/version';
 import { buildResults } from '@/cli/results';
-import type { ObjectStore } from '@/lib/server/storage';
+import { ObjectNotFoundError, type ObjectStore } from '@/lib/server/storage';
 import type { RunFailure, RunJob, WorkerMessage, WorkerOutcome } from '@/lib/server/runs/protocol';
 import { OutputSink, outputDatatype } from './output-sink';
 
@@ -45,6 +45,9 @@ export function describeFailure(error: unknown): RunFailure {
   if (error instanceof FormatError) {
     const sample = /sample (\d+)/.exec(error.message);
     return { message: `capture: ${error.message}`, stageId: null, kind: 'input', sampleIndex: sample ? Number(sample[1]) : null };
+  }
+  if (error instanceof ObjectNotFoundError) {
+    return { message: 'capture: its samples are missing from storage', stageId: null, kind: 'input', sampleIndex: null };
   }
   const message = error instanceof Error ? error.message : String(error);
   return { message, stageId: null, kind: 'internal', sampleIndex: null };

@@ -5,13 +5,29 @@
  */
 import { existsSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
+import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import { cancelGraceMs, workerEntryOverride } from './config';
 import type { RunJob, SchedulerMessage, WorkerMessage, WorkerOutcome } from './protocol';
 
 interface WorkerEntry {
-  path: string;
-  execArgv?: string[];
+  /** A module path, or (from source) the code that loads it through tsx. */
+  code: string;
+  eval: boolean;
+}
+
+/** A built module runs as is. */
+function builtEntry(path: string): WorkerEntry {
+  return { code: path, eval: false };
+}
+
+/**
+ * TypeScript source runs through tsx's register API: a worker's --import flag does not reach its
+ * own entry on Node 20, so a small loader registers tsx first and then imports the entry.
+ */
+function sourceEntry(path: string): WorkerEntry {
+  const url = JSON.stringify(pathToFileURL(path).href);
+  return { code: `import('tsx/esm/api').then((tsx) => { tsx.register(); return import(${url}); });`, eval: true };
 }
 
 let cachedEntry: WorkerEntry | null = null;
@@ -22,9 +38,9 @@ export function workerEntry(): WorkerEntry {
   const override = workerEntryOverride();
   const builtBesideServer = resolve(dirname(process.argv[1] ?? '.'), '../workers/run-worker.mjs');
   const source = resolve('workers/run-worker.ts');
-  if (override) cachedEntry = override.endsWith('.ts') ? { path: resolve(override), execArgv: ['--import', 'tsx'] } : { path: resolve(override) };
-  else if (existsSync(builtBesideServer)) cachedEntry = { path: builtBesideServer };
-  else if (existsSync(source)) cachedEntry = { path: source, execArgv: ['--import', 'tsx'] };
+  if (override) cachedEntry = override.endsWith('.ts') ? sourceEntry(resolve(override)) : builtEntry(resolve(override));
+  else if (existsSync(builtBesideServer)) cachedEntry = builtEntry(builtBesideServer);
+  else if (existsSync(source)) cachedEntry = sourceEntry(source);
   else throw new Error(`run worker entry not found: looked for ${builtBesideServer} and ${source}; run \`npm run build\``);
   return cachedEntry;
 }
@@ -41,7 +57,7 @@ export interface WorkerRun {
 export function startWorker(job: RunJob, onProgress: (message: Extract<WorkerMessage, { type: 'progress' }>) => void): WorkerRun {
   const entry = workerEntry();
   const started = performance.now();
-  const worker = new Worker(entry.path, { workerData: job, execArgv: entry.execArgv });
+  const worker = new Worker(entry.code, { workerData: job, eval: entry.eval });
   let cancelled = false;
   let settled = false;
   let settle!: (message: WorkerOutcome) => void;
