@@ -65,7 +65,11 @@ describe('create, get and list', () => {
 
     expect((await engineer.get('/api/chains?q=PAGING%20bravo')).body.items.map((c: { name: string }) => c.name)).toEqual(['Paging bravo']);
     expect((await engineer.get('/api/chains?q=pager%20test')).body.total).toBe(3);
-    expect((await engineer.get('/api/chains?q=100%25')).body.total).toBe(0);
+    // LIKE wildcards in the words are taken literally.
+    expect((await engineer.get('/api/chains?q=paging_alpha')).body.total).toBe(0);
+    expect((await engineer.get('/api/chains?q=%25%25')).body.total).toBe(0);
+    // ...and a literal % finds the demo chain that mentions the 99 % occupied bandwidth.
+    expect((await engineer.get('/api/chains?q=99%20%25')).body.items.map((c: { name: string }) => c.name)).toEqual(['Beacon down-conversion']);
     const mine = await engineer.get('/api/chains?owner=me&pageSize=100');
     expect(mine.body.items.every((chain: { owner: { name: string } }) => chain.owner.name === 'Teodor Lindqvist')).toBe(true);
   });
