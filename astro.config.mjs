@@ -3,6 +3,7 @@ import { defineConfig } from 'astro/config';
 import node from '@astrojs/node';
 import react from '@astrojs/react';
 import tailwindcss from '@tailwindcss/vite';
+import { fileURLToPath } from 'node:url';
 
 const port = Number(process.env.PORT ?? 4321);
 
@@ -19,6 +20,9 @@ export default defineConfig({
   },
   vite: {
     plugins: [tailwindcss()],
+    // Web workers are bundled by Vite outside Astro's own resolver: give them the `@/` alias too.
+    resolve: { alias: { '@': fileURLToPath(new URL('./src', import.meta.url)) } },
+    worker: { format: 'es' },
     ssr: { external: ['better-sqlite3', '@node-rs/argon2'] },
   },
 });
