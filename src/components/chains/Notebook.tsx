@@ -4,7 +4,7 @@
  * JSON view, checks it on every edit, designs filter responses and previews the chain on the head
  * of a capture in workers, and saves revisions.
  */
-import { useCallback, useEffect, useMemo, useState } from 'react';
+import { lazy, Suspense, useCallback, useEffect, useMemo, useState } from 'react';
 import type { Capture, CaptureList } from '@/components/captures/types';
 import { requestJson } from '@/components/forms/api';
 import { getStageDefinition } from '@/dsp/stages/index';
@@ -14,7 +14,6 @@ import { chainsApi, type ChainWithRevision } from './api';
 import { analyseDraft } from './analysis';
 import Cells from './Cells';
 import { addStage, duplicateStage, emptyDocument, moveStage, removeStage, setStageParams, toDraft, updateStage, type DraftDocument } from './draft';
-import JsonView from './JsonView';
 import NotebookHeader, { type ViewMode } from './NotebookHeader';
 import PreviewPanel from './PreviewPanel';
 import RevisionsPanel from './RevisionsPanel';
@@ -28,7 +27,15 @@ interface NotebookProps {
   user: { id: string; role: string };
 }
 
+// CodeMirror is about a third of the notebook's code: it loads when the JSON view first opens.
+const JsonView = lazy(() => import('./JsonView'));
+
 const captureKey = (chainId: string) => `quadrille.preview-capture.${chainId}`;
+
+/** The stream format a capture feeds the chain. */
+function captureFormat(c: Capture): StreamFormat {
+  return { sampleRate: c.sampleRate, sampleType: c.layout, ...(c.centerFrequency !== null ? { centerFrequency: c.centerFrequency } : {}) };
+}
 
 export default function Notebook({ chainId, user }: NotebookProps) {
   const [chain, setChain] = useState<ChainWithRevision | null>(null);
@@ -72,19 +79,19 @@ export default function Notebook({ chainId, user }: NotebookProps) {
     });
   }, [loadChain]);
 
-  // Pick the capture used last with this chain, else the first one the chain's first stage accepts.
+  // Pick the capture used last with this chain, else the first one the whole chain can take without errors.
   useEffect(() => {
     if (!captures || captureId !== null || !chain) return;
     const remembered = localStorage.getItem(captureKey(chainId));
+    const fits = (c: Capture) => analyseDraft(doc, captureFormat(c)).errorCount === 0;
     const first = getStageDefinition(doc.stages[0]?.kind ?? '');
-    const choice = captures.find((c) => c.id === remembered) ?? captures.find((c) => !first || first.accepts.includes(c.layout)) ?? captures[0];
+    const choice =
+      captures.find((c) => c.id === remembered) ?? captures.find(fits) ?? captures.find((c) => !first || first.accepts.includes(c.layout)) ?? captures[0];
     if (choice) setCaptureId(choice.id);
-  }, [captures, chain, chainId, captureId, doc.stages]);
+  }, [captures, chain, chainId, captureId, doc]);
 
   const capture = captures?.find((c) => c.id === captureId) ?? null;
-  const input: StreamFormat = capture
-    ? { sampleRate: capture.sampleRate, sampleType: capture.layout, ...(capture.centerFrequency !== null ? { centerFrequency: capture.centerFrequency } : {}) }
-    : manualInput;
+  const input: StreamFormat = capture ? captureFormat(capture) : manualInput;
   const inputKey = JSON.stringify(input);
   const stableInput = useMemo(() => input, [inputKey]); // eslint-disable-line react-hooks/exhaustive-deps
   const previewCapture = useMemo<PreviewCapture | null>(
@@ -96,7 +103,8 @@ export default function Notebook({ chainId, user }: NotebookProps) {
   const readOnly = viewing !== null || !chain?.permissions.update;
   const analysis = useMemo(() => analyseDraft(shown, stableInput), [shown, stableInput]);
   const responses = useResponses(shown, analysis.propagation);
-  const preview = usePreview(analysis.parse.ok ? analysis.parse.document : null, previewCapture, editedAt);
+  // A chain with errors (bad parameters, or a stage fed a type it does not take) would only fail: wait for a fix.
+  const preview = usePreview(analysis.parse.ok && analysis.errorCount === 0 ? analysis.parse.document : null, previewCapture, editedAt);
   const dirty = saved !== null && !sameJsonValue(doc, saved);
 
   const edit = useCallback((update: (d: DraftDocument) => DraftDocument) => {
@@ -195,7 +203,7 @@ export default function Notebook({ chainId, user }: NotebookProps) {
   if (loadError) return <p className="rounded-md border border-danger/40 bg-danger/10 px-3 py-2 text-sm text-danger">{loadError}</p>;
   if (!chain) return <p className="text-sm text-muted">Loading the chain…</p>;
 
-  const blocked = !analysis.parse.ok ? `The chain has ${analysis.errorCount} error${analysis.errorCount === 1 ? '' : 's'}: the preview waits until they are fixed.` : undefined;
+  const blocked = analysis.errorCount > 0 ? `The chain has ${analysis.errorCount} error${analysis.errorCount === 1 ? '' : 's'}: the preview waits until they are fixed.` : undefined;
   const cells = (
     <Cells
       doc={shown}
@@ -216,7 +224,9 @@ export default function Notebook({ chainId, user }: NotebookProps) {
       <p className={'text-xs ' + (jsonProblems.count ? 'text-danger' : 'text-muted')} data-testid="json-status">
         {jsonProblems.count ? `${jsonProblems.count} problem${jsonProblems.count > 1 ? 's' : ''}: ${jsonProblems.first}` : 'Valid chain document: edits apply to the cells as you type.'}
       </p>
-      <JsonView doc={shown} readOnly={readOnly} onApply={(d) => edit(() => d)} onDiagnostics={(count, first) => setJsonProblems({ count, first })} />
+      <Suspense fallback={<p className="text-sm text-muted">Loading the JSON editor…</p>}>
+        <JsonView doc={shown} readOnly={readOnly} onApply={(d) => edit(() => d)} onDiagnostics={(count, first) => setJsonProblems({ count, first })} />
+      </Suspense>
     </div>
   );
 

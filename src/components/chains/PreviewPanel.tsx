@@ -83,6 +83,7 @@ function PreviewStatus({ preview, blocked }: { preview: PreviewState; blocked?: 
       role="status"
       data-testid="preview-status"
       data-status={blocked ? 'blocked' : preview.status}
+      data-results={preview.results}
       data-edit-to-result-ms={preview.editToResultMs !== undefined ? Math.round(preview.editToResultMs) : undefined}
     >
       {text}

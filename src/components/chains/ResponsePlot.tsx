@@ -9,7 +9,7 @@ import Plot, { PlotPlaceholder } from '@/components/plots/Plot';
 import { axisScale, axisTitle, scaled } from '@/components/plots/axes';
 import type { StageResponse } from './use-responses';
 
-const HEIGHT = 330;
+const HEIGHT = 360;
 
 export default function ResponsePlot({ stageId, response }: { stageId: string; response: StageResponse | undefined }) {
   const result = response?.result;
@@ -50,8 +50,8 @@ export default function ResponsePlot({ stageId, response }: { stageId: string; r
       margin: { l: 56, r: 12, t: 8, b: 40 },
       xaxis: { title: { text: axisTitle('Frequency', scale) }, range: [result.initialRange[0] / scale.divisor, result.initialRange[1] / scale.divisor], anchor: 'y3' },
       yaxis: { title: { text: 'dB' }, domain: [0.45, 1], range: [Math.max(-160, Math.min(...result.magnitudeDb) - 5), 5] },
-      yaxis2: { title: { text: 'deg' }, domain: [0.24, 0.41] },
-      yaxis3: { title: { text: 'samples' }, domain: [0, 0.2], range: finiteDelays.length ? delayRange(finiteDelays) : undefined },
+      yaxis2: { title: { text: 'deg' }, domain: [0.25, 0.41], nticks: 3 },
+      yaxis3: { title: { text: 'samples' }, domain: [0, 0.19], nticks: 3, range: finiteDelays.length ? delayRange(finiteDelays) : undefined },
       shapes,
     };
     return { data, layout };

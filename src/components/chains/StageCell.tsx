@@ -48,7 +48,7 @@ function StageCell({ stage, index, count, input, issues, response, probe, probeS
   const definition = getStageDefinition(stage.kind);
   const hasErrors = issues.some((i) => i.severity === 'error');
   const stageLevel = issues.filter((i) => !parameterOf(i));
-  const showsResponse = (stage.kind === 'filter' || stage.kind === 'decimate') && !stage.bypass;
+  const showsResponse = (stage.kind === 'filter' || (stage.kind === 'decimate' && stage.params.antiAlias !== false)) && !stage.bypass;
   const titleId = `stage-${stage.id}-title`;
 
   return (
@@ -114,7 +114,7 @@ function StageCell({ stage, index, count, input, issues, response, probe, probeS
         </div>
       </header>
       {!collapsed && (
-        <div className="space-y-3 p-3">
+        <div className="@container space-y-3 p-3">
           {stageLevel.length > 0 && (
             <ul className="space-y-0.5">
               {stageLevel.map((issue, n) => (
@@ -125,7 +125,7 @@ function StageCell({ stage, index, count, input, issues, response, probe, probeS
             </ul>
           )}
           {definition ? (
-            <div className={showsResponse ? 'grid gap-4 2xl:grid-cols-[minmax(0,1fr)_minmax(0,1.1fr)]' : ''}>
+            <div className={showsResponse ? 'grid gap-4 @4xl:grid-cols-[minmax(0,1fr)_minmax(0,1.2fr)]' : ''}>
               <StageForm stageId={stage.id} definition={definition} params={stage.params} input={input} issues={issues} readOnly={readOnly} onChange={(p) => actions.params(stage.id, p)} />
               {showsResponse && <ResponsePlot stageId={stage.id} response={response} />}
             </div>

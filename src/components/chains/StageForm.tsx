@@ -90,7 +90,11 @@ export default function StageForm({ stageId, definition, params, input, issues, 
   const help = focused ? fields.find((f) => f.name === focused)?.help ?? definition.fields[focused]?.help : undefined;
 
   return (
-    <form id={formId} className="min-w-0" onSubmit={(e) => e.preventDefault()} aria-label={`Parameters of ${stageId}`} data-stage-form={stageId}>
+    <form id={formId} className="min-w-0" onSubmit={(e) => e.preventDefault()}
+      onBlur={(e) => {
+        if (!e.currentTarget.contains(e.relatedTarget as Node | null)) setFocused(null);
+      }}
+      aria-label={`Parameters of ${stageId}`} data-stage-form={stageId}>
       <fieldset disabled={readOnly} className="grid grid-cols-[repeat(auto-fill,minmax(10.5rem,1fr))] gap-x-3 gap-y-2">
         {variant && (
           <VariantSelect
@@ -112,9 +116,11 @@ export default function StageForm({ stageId, definition, params, input, issues, 
           />
         ))}
       </fieldset>
-      <p className="mt-2 min-h-[1.25rem] text-xs leading-5 text-muted" aria-live="polite">
-        {help ?? 'Numbers take SI prefixes: 1.25M, 400 kHz, 250 ms, -3 dB.'}
-      </p>
+      {help && (
+        <p className="mt-2 text-xs leading-4 text-muted" aria-live="polite">
+          {help}
+        </p>
+      )}
     </form>
   );
 }

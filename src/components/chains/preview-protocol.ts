@@ -3,10 +3,10 @@
  * the chain runs on the first samples of a capture with the same engine as a full run, and every
  * probe is reduced to what a plot can show before it crosses back to the page.
  */
-import type { ChainDocument } from '@/dsp/chain/document';
-import { runChain } from '@/dsp/chain/runner';
-import { reduceSpectrumMax } from '@/dsp/spectral/trace-reducer';
-import type { ProbeOutput, SampleType, StreamFormat } from '@/dsp/types';
+import type { ChainDocument } from '../../dsp/chain/document';
+import { runChain } from '../../dsp/chain/runner';
+import { reduceSpectrumMax } from '../../dsp/spectral/trace-reducer';
+import type { ProbeOutput, SampleType, StreamFormat } from '../../dsp/types';
 
 /** Samples of a capture's head the preview runs on (2^18). */
 export const PREVIEW_HEAD_SAMPLES = 1 << 18;

@@ -3,9 +3,9 @@
  * keeps it decoded, and runs the chain on it after every edit. A newer run cancels an older one,
  * so typing in the page never waits for a run.
  */
-import { parseDatatype } from '@/dsp/formats/datatype';
-import { SampleDecoder } from '@/dsp/formats/sample-decoder';
-import { isAbortError, ChainRunError } from '@/dsp/chain/run-error';
+import { parseDatatype } from '../../dsp/formats/datatype';
+import { SampleDecoder } from '../../dsp/formats/sample-decoder';
+import { isAbortError, ChainRunError } from '../../dsp/chain/run-error';
 import { PREVIEW_HEAD_SAMPLES, previewOnHead, type PreviewCapture, type PreviewReply, type PreviewRequest } from './preview-protocol';
 
 const heads = new Map<string, Promise<Float32Array>>();

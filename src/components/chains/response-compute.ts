@@ -3,10 +3,10 @@
  * and group delay (samples) against frequency, with the pass and stop bands to shade. Run in a
  * worker: a long Kaiser design takes a few hundred milliseconds.
  */
-import { designFilter, STOP_BAND_LEVEL_DB } from '@/dsp/filters/design';
-import { filterSchema } from '@/dsp/filters/filter-params';
-import { frequencyResponse, responseGrid, type FilterDesign } from '@/dsp/filters/response';
-import { ANTI_ALIAS_ATTENUATION_DB, ANTI_ALIAS_PASS_FRACTION, antiAliasTaps, decimateSchema } from '@/dsp/stages/decimate';
+import { designFilter, STOP_BAND_LEVEL_DB } from '../../dsp/filters/design';
+import { filterSchema } from '../../dsp/filters/filter-params';
+import { frequencyResponse, responseGrid, type FilterDesign } from '../../dsp/filters/response';
+import { ANTI_ALIAS_ATTENUATION_DB, ANTI_ALIAS_PASS_FRACTION, antiAliasTaps, decimateSchema } from '../../dsp/stages/decimate';
 
 export interface ResponseRequest {
   /** Changes whenever the response would (kind, parameters, input rate). */

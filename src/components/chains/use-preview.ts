@@ -23,11 +23,13 @@ export interface PreviewState {
   error?: { message: string; stageId?: string };
   /** Whether the probes shown belong to an older version of the document. */
   stale: boolean;
+  /** Results received so far, so a watcher can tell a new result from the previous one. */
+  results: number;
 }
 
 /** Runs `document` (a valid one, or null when the document has errors) on `capture`'s head. */
 export function usePreview(document: ChainDocument | null, capture: PreviewCapture | null, editedAt: number): PreviewState {
-  const [state, setState] = useState<PreviewState>({ status: 'idle', probes: new Map(), stale: false });
+  const [state, setState] = useState<PreviewState>({ status: 'idle', probes: new Map(), stale: false, results: 0 });
   const worker = useRef<Worker | null>(null);
   const runId = useRef(0);
   const editTimes = useRef(new Map<number, number>());
@@ -45,7 +47,8 @@ export function usePreview(document: ChainDocument | null, capture: PreviewCaptu
         setState((old) => ({ ...old, status: 'error', error: { message: reply.message, stageId: reply.stageId }, stale: true }));
         return;
       }
-      setState({
+      setState((old) => ({
+        results: old.results + 1,
         status: 'done',
         probes: new Map(reply.probes.map((p) => [p.stageId, p])),
         samples: reply.samplesIn,
@@ -54,7 +57,7 @@ export function usePreview(document: ChainDocument | null, capture: PreviewCaptu
         runMs: reply.runMs,
         fetchMs: reply.fetchMs,
         stale: false,
-      });
+      }));
     };
     return () => {
       w.terminate();
