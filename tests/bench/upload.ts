@@ -1,0 +1,218 @@
+/**
+ * `npm run bench:upload` (also part of `npm run bench`): uploads a generated 1 GiB capture over
+ * loopback to the BUILT server with the one-request API (POST /api/captures, body streamed from a
+ * generator, never held in memory) and reports the throughput and the server process's RSS growth
+ * (VmRSS from /proc/<pid>/status sampled every 20 ms during the upload; peak minus the value just
+ * before). Targets: >= 200 MB/s and <= 64 MiB of RSS growth.
+ *
+ * Options: --size-mib N (default 1024); --datatype ci16_le|cf32_le (default: both, cf32_le also
+ * exercises the NaN/infinity scan of float data); --data-dir FOLDER puts the temporary data
+ * folder there (default the system temp folder; /dev/shm takes the disk out of the measurement,
+ * since the local store fsyncs every capture before publishing it); --strict exits 1 when a
+ * target is missed. Needs `npx astro build` first; the data folder is removed afterwards.
+ */
+import { spawn, type ChildProcess } from 'node:child_process';
+import { createHash, randomBytes } from 'node:crypto';
+import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { request } from 'node:http';
+import { createServer } from 'node:net';
+import { cpus, loadavg, tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+
+const MiB = 1024 * 1024;
+const entry = resolve('dist/server/entry.mjs');
+const TARGET_MB_PER_S = 200;
+const TARGET_RSS_MIB = 64;
+
+function argValue(name: string): string | undefined {
+  const at = process.argv.indexOf(name);
+  return at >= 0 ? process.argv[at + 1] : undefined;
+}
+
+function freePort(): Promise<number> {
+  return new Promise((done, fail) => {
+    const probe = createServer();
+    probe.once('error', fail);
+    probe.listen(0, '127.0.0.1', () => {
+      const address = probe.address();
+      probe.close(() => done(typeof address === 'object' && address ? address.port : 0));
+    });
+  });
+}
+
+/** Resident set size of a process in bytes (Linux /proc). */
+function rssBytes(pid: number): number {
+  const status = readFileSync(`/proc/${pid}/status`, 'utf8');
+  const match = /VmRSS:\s+(\d+)\s+kB/.exec(status);
+  return match ? Number(match[1]) * 1024 : 0;
+}
+
+/** CPU time (user + system) a process has used, in seconds (Linux /proc, clock ticks of 10 ms). */
+function cpuSeconds(pid: number): number {
+  const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ');
+  // After the command name: state is field 3, utime field 14 and stime field 15 (proc(5)).
+  return (Number(fields[11]) + Number(fields[12])) / 100;
+}
+
+async function waitForHealth(baseUrl: string, child: ChildProcess): Promise<void> {
+  const deadline = Date.now() + 60_000;
+  while (Date.now() < deadline) {
+    if (child.exitCode !== null) throw new Error(`server exited with code ${child.exitCode}`);
+    try {
+      if ((await fetch(`${baseUrl}/api/health`)).ok) return;
+    } catch {
+      // not listening yet
+    }
+    await new Promise((wake) => setTimeout(wake, 100));
+  }
+  throw new Error('server did not answer within 60 s');
+}
+
+/** One MiB of random sample data (finite floats for f32 data). */
+function randomBlock(datatype: string): Buffer {
+  return datatype === 'cf32_le' ? Buffer.from(Float32Array.from({ length: MiB / 4 }, () => Math.random() * 2 - 1).buffer) : randomBytes(MiB);
+}
+
+/**
+ * The capture's bytes as 1 MiB chunks: `block` with the chunk number written into its first 8
+ * bytes, so no two chunks are equal. The same block gives the same bytes, so the expected SHA-256
+ * can be computed before the timed upload.
+ */
+function* captureChunks(totalBytes: number, block: Buffer): Generator<Buffer> {
+  for (let sent = 0, index = 0; sent < totalBytes; sent += MiB, index++) {
+    const chunk = Buffer.from(block.subarray(0, Math.min(MiB, totalBytes - sent)));
+    // A small integer read as two float32 values is a denormal or zero: still finite.
+    chunk.writeUInt32LE(index, 0);
+    chunk.writeUInt32LE(0, 4);
+    yield chunk;
+  }
+}
+
+interface UploadResult {
+  status: number;
+  body: string;
+  seconds: number;
+}
+
+/** Streams the generator into POST /api/captures with node:http, honouring back-pressure. */
+function uploadOnce(baseUrl: string, cookie: string, totalBytes: number, datatype: string, chunks: Iterable<Buffer>): Promise<UploadResult> {
+  const query = new URLSearchParams({ name: `bench ${datatype} ${totalBytes / MiB} MiB`, datatype, sample_rate: '100000000', center_frequency: '2412000000' });
+  return new Promise((done, fail) => {
+    const started = performance.now();
+    const req = request(`${baseUrl}/api/captures?${query}`, {
+      method: 'POST',
+      headers: { cookie, 'content-type': 'application/octet-stream', 'content-length': String(totalBytes) },
+    });
+    req.on('response', (response) => {
+      let body = '';
+      response.setEncoding('utf8');
+      response.on('data', (text) => (body += text));
+      response.on('end', () => done({ status: response.statusCode ?? 0, body, seconds: (performance.now() - started) / 1000 }));
+    });
+    req.on('error', fail);
+    const iterator = chunks[Symbol.iterator]();
+    const pump = () => {
+      for (;;) {
+        const next = iterator.next();
+        if (next.done) {
+          req.end();
+          return;
+        }
+        if (!req.write(next.value)) {
+          req.once('drain', pump);
+          return;
+        }
+      }
+    };
+    pump();
+  });
+}
+
+async function benchDatatype(baseUrl: string, pid: number, cookie: string, sizeBytes: number, datatype: string) {
+  const block = randomBlock(datatype);
+  const hash = createHash('sha256');
+  for (const chunk of captureChunks(sizeBytes, block)) hash.update(chunk);
+  const expected = hash.digest('hex');
+
+  const before = rssBytes(pid);
+  const cpuBefore = cpuSeconds(pid);
+  let peak = before;
+  const sampler = setInterval(() => {
+    try {
+      peak = Math.max(peak, rssBytes(pid));
+    } catch {
+      // process gone; the upload will fail and say so
+    }
+  }, 20);
+  let result: UploadResult;
+  try {
+    result = await uploadOnce(baseUrl, cookie, sizeBytes, datatype, captureChunks(sizeBytes, block));
+  } finally {
+    clearInterval(sampler);
+  }
+  peak = Math.max(peak, rssBytes(pid));
+  const serverCpu = cpuSeconds(pid) - cpuBefore;
+  if (result.status !== 201) throw new Error(`upload answered ${result.status}: ${result.body}`);
+  const capture = JSON.parse(result.body) as { sha256: string; byteSize: number };
+  if (capture.sha256 !== expected || capture.byteSize !== sizeBytes) {
+    throw new Error(`stored capture differs: sha256 ${capture.sha256} (expected ${expected}), ${capture.byteSize} bytes`);
+  }
+  const mbPerSecond = sizeBytes / 1e6 / result.seconds;
+  const growthMiB = (peak - before) / MiB;
+  return { datatype, seconds: result.seconds, mbPerSecond, serverCpu, beforeMiB: before / MiB, peakMiB: peak / MiB, growthMiB };
+}
+
+async function main(): Promise<void> {
+  if (!existsSync(entry)) throw new Error('dist/server/entry.mjs is missing: run `npx astro build` first.');
+  const sizeBytes = Number(argValue('--size-mib') ?? 1024) * MiB;
+  const datatypes = argValue('--datatype') ? [argValue('--datatype')!] : ['ci16_le', 'cf32_le'];
+  const dataDir = mkdtempSync(join(argValue('--data-dir') ?? tmpdir(), 'quadrille-bench-upload-'));
+  const port = await freePort();
+  const baseUrl = `http://127.0.0.1:${port}`;
+  const child = spawn(process.execPath, [entry], {
+    env: {
+      ...process.env,
+      QUADRILLE_DATA_DIR: dataDir,
+      QUADRILLE_STORAGE: 'local',
+      QUADRILLE_DEMO: '0',
+      QUADRILLE_QUOTA_STORAGE_BYTES: String(4 * sizeBytes + 64 * MiB),
+      QUADRILLE_QUOTA_LARGEST_CAPTURE_BYTES: String(sizeBytes),
+      HOST: '127.0.0.1',
+      PORT: String(port),
+      NODE_ENV: 'production',
+    },
+    stdio: ['ignore', 'ignore', 'inherit'],
+  });
+  const rows: Awaited<ReturnType<typeof benchDatatype>>[] = [];
+  try {
+    await waitForHealth(baseUrl, child);
+    const setup = await fetch(`${baseUrl}/api/setup`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', origin: baseUrl },
+      body: JSON.stringify({ email: 'bench@quadrille.test', name: 'Bench', password: 'bench-password-1' }),
+    });
+    if (setup.status !== 201) throw new Error(`setup answered ${setup.status}: ${await setup.text()}`);
+    const cookie = setup.headers.getSetCookie().map((line) => line.split(';')[0]).join('; ');
+    // Warm-up: the first upload loads the capture code paths; the measured ones should not pay for it.
+    await uploadOnce(baseUrl, cookie, 4 * MiB, 'ci16_le', captureChunks(4 * MiB, randomBlock('ci16_le')));
+    for (const datatype of datatypes) rows.push(await benchDatatype(baseUrl, child.pid!, cookie, sizeBytes, datatype));
+  } finally {
+    child.kill('SIGTERM');
+    await new Promise((wake) => child.once('exit', wake));
+    rmSync(dataDir, { recursive: true, force: true });
+  }
+
+  console.log(`\nOne-request upload over loopback: ${sizeBytes / MiB} MiB per capture into ${dataDir}, ${cpus().length} CPUs, load average ${loadavg()[0]!.toFixed(2)}`);
+  console.log('datatype   seconds   MB/s  server CPU s  MB per CPU s  RSS before  RSS peak  growth   targets (>= 200 MB/s, <= 64 MiB)');
+  let missed = false;
+  for (const row of rows) {
+    const ok = row.mbPerSecond >= TARGET_MB_PER_S && row.growthMiB <= TARGET_RSS_MIB;
+    missed ||= !ok;
+    console.log(
+      `${row.datatype.padEnd(9)}  ${row.seconds.toFixed(2).padStart(7)}  ${row.mbPerSecond.toFixed(0).padStart(5)}  ${row.serverCpu.toFixed(2).padStart(12)}  ${(sizeBytes / 1e6 / row.serverCpu).toFixed(0).padStart(12)}  ${row.beforeMiB.toFixed(1).padStart(8)} MiB ${row.peakMiB.toFixed(1).padStart(6)} MiB ${row.growthMiB.toFixed(1).padStart(5)} MiB  ${ok ? 'met' : 'MISSED'}`,
+    );
+  }
+  if (missed && process.argv.includes('--strict')) process.exit(1);
+}
+
+await main();
