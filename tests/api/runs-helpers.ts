@@ -100,7 +100,7 @@ export async function uploadCapture(client: Client, name: string, samples: Float
       origin: client.baseUrl,
       'content-type': 'application/octet-stream',
     },
-    body: new Uint8Array(samples.buffer, samples.byteOffset, samples.byteLength),
+    body: new Uint8Array(samples.buffer as ArrayBuffer, samples.byteOffset, samples.byteLength),
   });
   const text = await response.text();
   expect(response.status, text).toBe(201);

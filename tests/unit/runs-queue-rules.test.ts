@@ -5,6 +5,7 @@ import { estimateSecondsLeft } from '@/lib/server/runs/present';
 import { levelColumn, readoutsCsv } from '@/lib/server/runs/export';
 import { mergeMinMax, reduceSpectrum } from '@/lib/server/runs/plot';
 import { cacheKey, computationHash } from '@/lib/server/runs/cache-key';
+import type { RunResults } from '@/lib/server/runs/results';
 
 const queue = (...users: string[]) => users.map((userId, index) => ({ id: `run${index}`, userId }));
 
@@ -41,7 +42,8 @@ describe('run figures', () => {
   it('names level columns after their unit and quotes CSV cells that need it', () => {
     expect(levelColumn('dBFS/Hz')).toBe('level_dBFS_per_Hz');
     expect(levelColumn('dBm')).toBe('level_dBm');
-    const csv = readoutsCsv({ probes: [{ stageId: 'm', kind: 'measure', format: { sampleRate: 1, sampleType: 'real' }, readouts: [{ name: 'SNR, in band', value: 41.5, unit: 'dB' }, { name: 'Tone', value: null, unit: 'dBFS' }] }] });
+    const probes = [{ stageId: 'm', kind: 'measure', format: { sampleRate: 1, sampleType: 'real' }, readouts: [{ name: 'SNR, in band', value: 41.5, unit: 'dB' }, { name: 'Tone', value: null, unit: 'dBFS' }] }];
+    const csv = readoutsCsv({ probes } as unknown as RunResults);
     expect(csv).toBe('probe,name,value,unit\r\nm,"SNR, in band",41.5,dB\r\nm,Tone,,dBFS\r\n');
   });
 

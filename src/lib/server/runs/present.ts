@@ -5,6 +5,7 @@
  */
 import { access, can, type Actor } from '@/lib/permissions';
 import { finishedStatuses, flag, runResource, type RunStatus, type RunView } from './rows';
+import type { RunResults } from './results';
 
 export interface PresentedRunError {
   message: string;
@@ -38,7 +39,7 @@ export interface PresentedRun {
   error: PresentedRunError | null;
   permissions: { cancel: boolean; retry: boolean };
   /** Only in GET /api/runs/:id of a succeeded run: the command line's results.json shape. */
-  results?: unknown;
+  results?: RunResults;
 }
 
 function iso(value: string | null): string | null {
@@ -58,7 +59,7 @@ function nameVisible(viewer: Actor, runVisible: boolean, ownerId: string | null,
 }
 
 /** The run as `viewer` sees it, with what `viewer` may do to it. */
-export function presentRun(run: RunView, viewer: Actor, results?: unknown): PresentedRun {
+export function presentRun(run: RunView, viewer: Actor, results?: RunResults): PresentedRun {
   const resource = runResource(run);
   const visible = access(viewer, 'run.read', resource) === 'allowed';
   const active = !finishedStatuses.has(run.status);

@@ -3,7 +3,7 @@
  * the command line's results.json shape (probes with spectra, readouts, spectrograms, traces).
  */
 import type { Knex } from 'knex';
-import type { SpectrogramResult, StreamFormat, TraceResult } from '@/dsp/types';
+import type { ChainIssue, SpectrogramResult, StreamFormat, TraceResult } from '@/dsp/types';
 import { ApiError } from '../api/errors';
 import type { RunResultRow, RunView } from './rows';
 
@@ -26,10 +26,29 @@ export interface ResultProbe {
   constellation?: number[];
 }
 
-/** The parts of results.json the server reads; the rest passes through untouched. */
+/** results.json as the command line writes it (src/cli/results.ts); paths name API resources here. */
 export interface RunResults {
+  engineVersion: string;
+  createdAt: string;
+  chain: { path: string; name: string; stages: { id: string; kind: string; probe?: boolean; bypass?: boolean }[] };
+  input: {
+    path: string;
+    container: string;
+    datatype: string;
+    layout: string;
+    /** Hz. */
+    sampleRate: number;
+    /** Hz, or null. */
+    centerFrequency: number | null;
+    samples: number;
+    /** s. */
+    durationSeconds: number;
+  };
+  output: { meta: string; data: string; datatype: string; layout: string; sampleRate: number; centerFrequency: number | null; samples: number };
   probes: ResultProbe[];
-  [key: string]: unknown;
+  issues: ChainIssue[];
+  /** Run time (s) and input samples per second. */
+  timing: { seconds: number; inputSamplesPerSecond: number | null };
 }
 
 /** 409 for a run that has no results (yet, or ever). */
