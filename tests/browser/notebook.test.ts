@@ -141,13 +141,42 @@ describe.skipIf(!hasChromium)('chain notebook in a browser', { timeout: 180_000 
     await until('the cut-off error to clear', async () => (await stage('filter').locator('[data-field-error="cutoff"]').count()) === 0);
   });
 
-  it('shows the same chain as JSON with its problems at their place', async () => {
+  it('shows the same chain as JSON, marks a problem at its value and applies a fixed text to the cells', async () => {
     await page.getByRole('radio', { name: 'JSON' }).click();
     const editor = page.getByTestId('json-editor');
     await editor.waitFor();
     await until('the cut-off in the JSON text', async () => (await textOf(editor)).includes('"cutoff": 150000'));
+
+    const chain = (cutoff: number) =>
+      JSON.stringify(
+        {
+          version: 1,
+          name: 'Beacon check from the browser test',
+          stages: [
+            { id: 'mix', kind: 'mix', params: { frequency: -600000, phase: 0 } },
+            { id: 'filter', kind: 'filter', params: { design: 'window', response: 'lowpass', cutoff, taps: 127, window: 'hamming' } },
+            { id: 'decimate', kind: 'decimate', params: { factor: 8, antiAlias: true } },
+            { id: 'spectrum', kind: 'spectrum', params: {}, probe: true },
+          ],
+        },
+        null,
+        2,
+      );
+    await editor.click();
+    await page.keyboard.press('Control+A');
+    await page.keyboard.insertText(chain(-5));
+    // The validator's problem with stages[1].params.cutoff is underlined on the value itself.
+    const marked = page.locator('.cm-lintRange-error');
+    await until('the diagnostic on the cut-off', async () => (await marked.count()) > 0);
+    expect(await marked.first().textContent()).toBe('-5');
+    expect(await textOf(page.getByTestId('json-status'))).toMatch(/cutoff: must be > 0 Hz/);
+
+    await page.keyboard.press('Control+A');
+    await page.keyboard.insertText(chain(120000));
+    await until('the diagnostic to clear', async () => (await marked.count()) === 0);
+    await until('the fixed text to apply', async () => (await textOf(page.getByTestId('json-status'))).startsWith('Valid chain document'));
     await page.getByRole('radio', { name: 'Cells' }).click();
-    expect(await stage('filter').getByLabel('Cut-off').inputValue()).toBe('150 kHz');
+    await until('the cut-off from the JSON in the form', async () => (await stage('filter').getByLabel('Cut-off').inputValue()) === '120 kHz');
   });
 
   it('saves a revision with a message', async () => {

@@ -7,7 +7,6 @@
 import { lazy, Suspense, useCallback, useEffect, useMemo, useState } from 'react';
 import type { Capture, CaptureList } from '@/components/captures/types';
 import { requestJson } from '@/components/forms/api';
-import { getStageDefinition } from '@/dsp/stages/index';
 import type { StreamFormat } from '@/dsp/types';
 import { sameJsonValue } from '@/lib/chain-diff';
 import { chainsApi, type ChainWithRevision } from './api';
@@ -83,10 +82,13 @@ export default function Notebook({ chainId, user }: NotebookProps) {
   useEffect(() => {
     if (!captures || captureId !== null || !chain) return;
     const remembered = localStorage.getItem(captureKey(chainId));
-    const fits = (c: Capture) => analyseDraft(doc, captureFormat(c)).errorCount === 0;
-    const first = getStageDefinition(doc.stages[0]?.kind ?? '');
-    const choice =
-      captures.find((c) => c.id === remembered) ?? captures.find(fits) ?? captures.find((c) => !first || first.accepts.includes(c.layout)) ?? captures[0];
+    // Fewest errors first, then fewest warnings; list order breaks ties.
+    const score = (c: Capture) => {
+      const a = analyseDraft(doc, captureFormat(c));
+      return a.errorCount * 1000 + a.warningCount;
+    };
+    const best = captures.map((c) => ({ c, s: score(c) })).sort((x, y) => x.s - y.s)[0]?.c;
+    const choice = captures.find((c) => c.id === remembered) ?? best;
     if (choice) setCaptureId(choice.id);
   }, [captures, chain, chainId, captureId, doc]);
 

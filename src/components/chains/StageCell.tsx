@@ -125,9 +125,16 @@ function StageCell({ stage, index, count, input, issues, response, probe, probeS
             </ul>
           )}
           {definition ? (
-            <div className={showsResponse ? 'grid gap-4 @4xl:grid-cols-[minmax(0,1fr)_minmax(0,1.2fr)]' : ''}>
+            <div className={showsResponse ? 'grid gap-4 @5xl:grid-cols-[minmax(0,1fr)_minmax(0,1.2fr)]' : ''}>
               <StageForm stageId={stage.id} definition={definition} params={stage.params} input={input} issues={issues} readOnly={readOnly} onChange={(p) => actions.params(stage.id, p)} />
-              {showsResponse && <ResponsePlot stageId={stage.id} response={response} />}
+              {showsResponse &&
+                (hasErrors ? (
+                  <p className="grid min-h-24 place-items-center rounded-md border border-dashed border-line px-3 text-center text-xs text-muted">
+                    The designed response shows once this stage has no errors.
+                  </p>
+                ) : (
+                  <ResponsePlot stageId={stage.id} response={response} />
+                ))}
             </div>
           ) : (
             <p className="text-sm text-danger">Unknown stage kind “{stage.kind}”: fix it in the JSON view.</p>

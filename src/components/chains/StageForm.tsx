@@ -72,13 +72,16 @@ export default function StageForm({ stageId, definition, params, input, issues, 
         if (next.low === undefined) next = { ...next, low: seed.low };
         if (next.high === undefined) next = { ...next, high: seed.high };
       }
+      // The resolver checks the whole form but RHF only refreshes the edited field's error: a
+      // change of \`high\` must also clear (or raise) the error shown on \`low\`.
+      void trigger();
       const json = JSON.stringify(next);
       if (json === JSON.stringify(paramsRef.current)) return;
       emitted.current = json;
       onChangeRef.current(next);
     });
     return () => sub.unsubscribe();
-  }, [form, fields, definition]);
+  }, [form, fields, definition, trigger]);
 
   useEffect(() => {
     void trigger();

@@ -31,12 +31,16 @@ export default function StagePicker({ inputType, onPick, label = 'Add stage', in
   useEffect(() => {
     if (open && !initiallyOpen) searchRef.current?.focus();
   }, [open, initiallyOpen]);
+  // An emptied notebook offers the kinds again.
+  useEffect(() => {
+    if (initiallyOpen) setOpen(true);
+  }, [initiallyOpen]);
   useEffect(() => setActive(0), [query]);
 
   const pick = (kind: string) => {
     onPick(kind);
     setQuery('');
-    if (!initiallyOpen) setOpen(false);
+    setOpen(false);
   };
 
   if (!open) {

@@ -24,7 +24,8 @@ export function responseRequests(doc: DraftDocument, propagation: StagePropagati
   doc.stages.forEach((stage, index) => {
     if (stage.kind !== 'filter' && stage.kind !== 'decimate') return;
     const p = propagation[index];
-    if (!p || p.stageId !== stage.id) return;
+    // A stage with errors (bad parameters, an edge above Nyquist, an unstable design) has no response to draw.
+    if (!p || p.stageId !== stage.id || p.issues.some((i) => i.severity === 'error')) return;
     const sampleRate = p.input.sampleRate;
     out.push({ key: `${stage.kind}|${sampleRate}|${JSON.stringify(stage.params)}`, stageId: stage.id, kind: stage.kind, params: stage.params, sampleRate });
   });
