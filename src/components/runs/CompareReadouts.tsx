@@ -42,7 +42,7 @@ export function CompareReadouts({ comparison }: { comparison: RunComparison }) {
             return (
               <tr key={`${row.probe}\u0000${row.name}\u0000${row.unit}`} className={'border-line/60 ' + (showProbe ? 'border-t' : '')} data-readout={row.name}>
                 <td className="py-1.5 pr-3 align-baseline font-mono text-xs text-muted">{showProbe ? row.probe : ''}</td>
-                <th scope="row" className="py-1.5 pr-3 text-left align-baseline font-normal">
+                <th scope="row" className="whitespace-nowrap py-1.5 pr-3 text-left align-baseline font-normal">
                   {row.name}
                 </th>
                 {runs.map((run, index) => (

@@ -7,7 +7,7 @@ import { CompareReadouts } from './CompareReadouts';
 import { overlayFigure, runColour } from './compare-figures';
 import { shortId } from './format';
 import { usePlotWidth } from './hooks';
-import { PlotCard } from './PlotCard';
+import { PlotCard, plotConfig } from './PlotCard';
 import { StatusBadge } from './StatusBadge';
 import type { ComparedSpectrum, Run, RunComparison } from './types';
 
@@ -49,23 +49,30 @@ function CompareBody({ ids }: CompareViewProps) {
         </p>
       )}
       {comparison && <RunLegend runs={comparison.runs} />}
-      <div ref={box} className="space-y-6">
-        {comparison ? <SpectraOverlays comparison={comparison} /> : !query.isError && <PlotPlaceholder height={HEIGHT} text="Loading the runs…" />}
-      </div>
-      {comparison && (
-        <section aria-labelledby="compare-readouts-title" className="rounded-lg border border-line bg-panel p-4">
-          <div className="mb-3 flex flex-wrap items-baseline justify-between gap-x-6 gap-y-1">
+      {/* Wide screens put the readouts beside the spectra rather than stretching the table across. */}
+      <div className="grid items-start gap-6 2xl:grid-cols-[minmax(0,1fr)_minmax(0,56rem)]">
+        <div ref={box} className="min-w-0 space-y-6">
+          {comparison ? <SpectraOverlays comparison={comparison} /> : !query.isError && <PlotPlaceholder height={HEIGHT} text="Loading the runs…" />}
+        </div>
+        {/* Always present, so the spectra column keeps its width (and its fetched width) when the data arrive. */}
+        <section aria-labelledby="compare-readouts-title" className="min-w-0 rounded-lg border border-line bg-panel p-4">
+          <div className="mb-3 space-y-0.5">
             <h2 id="compare-readouts-title" className="font-semibold">
               Readouts side by side
             </h2>
             <p className="text-xs text-muted">
-              Δ against the first run, <span className="font-medium text-ink">{comparison.runs[0] ? comparison.runs[0].capture.name : ''}</span>; marked when 1 dB or more for
-              levels, 10 % or more otherwise
+              Δ against the first run
+              {comparison && (
+                <>
+                  , <span className="font-medium text-ink">{comparison.runs[0]?.capture.name}</span>
+                </>
+              )}
+              ; marked when 1 dB or more for levels, 10 % or more otherwise.
             </p>
           </div>
-          <CompareReadouts comparison={comparison} />
+          {comparison ? <CompareReadouts comparison={comparison} /> : <p className="text-sm text-muted">Loading…</p>}
         </section>
-      )}
+      </div>
     </div>
   );
 }
@@ -130,7 +137,15 @@ function OverlayCard({ probe, spectra, runs, theme }: { probe: string; spectra: 
       fileName={`compare-spectra-${probe}`}
       testId={`compare-spectra-${probe}`}
     >
-      <Plot label={`Spectra at ${probe}, overlaid`} testId={`compare-plot-${probe}`} height={HEIGHT} data={figure.data} layout={figure.layout} onReady={setGraph} />
+      <Plot
+        label={`Spectra at ${probe}, overlaid`}
+        testId={`compare-plot-${probe}`}
+        height={HEIGHT}
+        data={figure.data}
+        layout={figure.layout}
+        config={plotConfig}
+        onReady={setGraph}
+      />
     </PlotCard>
   );
 }

@@ -83,10 +83,22 @@ export function MarkerPanel({ markers, next, unit, offset, onNext, onStep, onPea
                 </td>
                 <td className="py-0.5">
                   <div className="flex gap-1">
-                    <button type="button" className={buttonSmall} disabled={!marker} onClick={() => onStep(name, -1)} aria-label={`Move marker ${name} one bin down`}>
+                    <button
+                      type="button"
+                      className={buttonSmall}
+                      disabled={!marker}
+                      onClick={() => onStep(name, -1)}
+                      aria-label={`Move marker ${name} one bin down`}
+                    >
                       ◀
                     </button>
-                    <button type="button" className={buttonSmall} disabled={!marker} onClick={() => onStep(name, 1)} aria-label={`Move marker ${name} one bin up`}>
+                    <button
+                      type="button"
+                      className={buttonSmall}
+                      disabled={!marker}
+                      onClick={() => onStep(name, 1)}
+                      aria-label={`Move marker ${name} one bin up`}
+                    >
                       ▶
                     </button>
                     <button type="button" className={buttonSmall} onClick={() => onPeak(name)} title={`Put marker ${name} on the peak`}>

@@ -1,5 +1,5 @@
 import { forwardRef, useState, type ReactNode } from 'react';
-import type { PlotlyHTMLElement } from 'plotly.js-dist-min';
+import type { Config, PlotlyHTMLElement } from 'plotly.js-dist-min';
 import { readPlotTheme } from '../plots/plot-theme';
 import { buttonSmall } from '../ui';
 
@@ -19,6 +19,12 @@ export interface PlotCardProps {
  * A titled panel around one plot, with a PNG export of the plot as drawn (zoom included). The
  * ref goes on the plot's box, whose width decides how many points are fetched.
  */
+/**
+ * Plotly config of the run screens' plots: the card's PNG button replaces Plotly's own (which
+ * saves a transparent image), so the mode bar leaves it out.
+ */
+export const plotConfig: Partial<Config> = { modeBarButtonsToRemove: ['lasso2d', 'select2d', 'toImage'] };
+
 export const PlotCard = forwardRef<HTMLDivElement, PlotCardProps>(function PlotCard({ title, note, graph, fileName, children, testId }, ref) {
   const [saving, setSaving] = useState(false);
   const [failed, setFailed] = useState<string | null>(null);
@@ -41,7 +47,13 @@ export const PlotCard = forwardRef<HTMLDivElement, PlotCardProps>(function PlotC
           <h3 className="font-semibold">{title}</h3>
           {note && <p className="font-mono text-xs text-muted">{note}</p>}
         </div>
-        <button type="button" className={buttonSmall} disabled={!graph || saving} onClick={() => void savePng()} title="Save the plot as drawn, zoom included, as a PNG image">
+        <button
+          type="button"
+          className={buttonSmall}
+          disabled={!graph || saving}
+          onClick={() => void savePng()}
+          title="Save the plot as drawn, zoom included, as a PNG image"
+        >
           {saving ? 'Saving…' : 'PNG'}
         </button>
       </div>

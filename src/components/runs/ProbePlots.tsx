@@ -6,7 +6,7 @@ import { useMemo, useState } from 'react';
 import Plot, { PlotPlaceholder } from '../plots/Plot';
 import { usePlotTheme } from '../plots/plot-theme';
 import { usePlotData, usePlotWidth } from './hooks';
-import { PlotCard } from './PlotCard';
+import { PlotCard, plotConfig } from './PlotCard';
 import { constellationFigure, frequencyAxis, spectrogramFigure, traceFigure } from './run-figures';
 import { SpectrumCard } from './SpectrumCard';
 import type { ResultProbe } from './types';
@@ -20,7 +20,9 @@ export function hasPlots(probe: ResultProbe): boolean {
 
 export function ProbePlots({ runId, probe, fileBase }: { runId: string; probe: ResultProbe; fileBase: string }) {
   const spectrum = probe.spectrum;
-  const others = [probe.spectrogram && 'spectrogram', probe.trace && 'trace', probe.constellation && probe.constellation.length > 0 && 'constellation'].filter(Boolean) as OtherKind[];
+  const others = [probe.spectrogram && 'spectrogram', probe.trace && 'trace', probe.constellation && probe.constellation.length > 0 && 'constellation'].filter(
+    Boolean,
+  ) as OtherKind[];
   return (
     <div className="space-y-4" data-probe={probe.stageId}>
       {spectrum && <SpectrumCard runId={runId} probe={{ ...probe, spectrum }} fileBase={fileBase} />}
@@ -63,7 +65,8 @@ function OtherPlotCard({ runId, probe, kind, fileBase }: { runId: string; probe:
     const data = plot.data;
     if (!data) return undefined;
     if (data.kind === 'spectrogram') return `${data.times.length} rows × ${data.frequencies.length} columns`;
-    if (data.kind === 'trace') return data.samplesPerColumn > 1 ? `min/max of ${data.samplesPerColumn.toLocaleString('en')} samples per column` : 'every sample';
+    if (data.kind === 'trace')
+      return data.samplesPerColumn > 1 ? `min/max of ${data.samplesPerColumn.toLocaleString('en')} samples per column` : 'every sample';
     if (data.kind === 'constellation') return `${(data.points.length / 2).toLocaleString('en')} samples spread over the run`;
     return undefined;
   }, [plot.data]);
@@ -71,7 +74,7 @@ function OtherPlotCard({ runId, probe, kind, fileBase }: { runId: string; probe:
   return (
     <PlotCard ref={box} title={title} note={note} graph={graph} fileName={`${fileBase}-${kind}-${probe.stageId}`} testId={`${kind}-card-${probe.stageId}`}>
       {figure ? (
-        <Plot label={title} testId={`${kind}-plot-${probe.stageId}`} height={HEIGHT} data={figure.data} layout={figure.layout} onReady={setGraph} />
+        <Plot label={title} testId={`${kind}-plot-${probe.stageId}`} height={HEIGHT} data={figure.data} layout={figure.layout} config={plotConfig} onReady={setGraph} />
       ) : (
         <PlotPlaceholder height={HEIGHT} text={plot.isError ? `Could not be loaded: ${(plot.error as Error).message}` : 'Loading…'} />
       )}

@@ -48,7 +48,13 @@ export function ReadoutsTable({ probes }: { probes: ResultProbe[] }) {
         {table.getHeaderGroups().map((group) => (
           <tr key={group.id}>
             {group.headers.map((header) => (
-              <th key={header.id} scope="col" className={'py-1.5 pr-3 font-medium last:pr-0 ' + ((header.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric ? 'text-right' : '')}>
+              <th
+                key={header.id}
+                scope="col"
+                className={
+                  'py-1.5 pr-3 font-medium last:pr-0 ' + ((header.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric ? 'text-right' : '')
+                }
+              >
                 {flexRender(header.column.columnDef.header, header.getContext())}
               </th>
             ))}
@@ -59,7 +65,12 @@ export function ReadoutsTable({ probes }: { probes: ResultProbe[] }) {
         {table.getRowModel().rows.map((row) => (
           <tr key={row.id} className="border-b border-line/60 last:border-0" data-readout={row.original.name}>
             {row.getVisibleCells().map((cell) => (
-              <td key={cell.id} className={'py-1.5 pr-3 align-baseline last:pr-0 ' + ((cell.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric ? 'text-right' : '')}>
+              <td
+                key={cell.id}
+                className={
+                  'py-1.5 pr-3 align-baseline last:pr-0 ' + ((cell.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric ? 'text-right' : '')
+                }
+              >
                 {flexRender(cell.column.columnDef.cell, cell.getContext())}
               </td>
             ))}

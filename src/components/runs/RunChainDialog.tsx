@@ -106,7 +106,15 @@ function RunChainDialog({ capture, onClose }: RunChainProps & { onClose: () => v
       <label className="sr-only" htmlFor="run-chain-search">
         Search chains
       </label>
-      <input id="run-chain-search" className={input} type="search" placeholder="Search chains by name" value={search} onChange={(e) => setSearch(e.target.value)} autoFocus />
+      <input
+        id="run-chain-search"
+        className={input}
+        type="search"
+        placeholder="Search chains by name"
+        value={search}
+        onChange={(e) => setSearch(e.target.value)}
+        autoFocus
+      />
       {listError && (
         <p role="alert" className="mt-3 text-sm text-danger">
           The chains could not be listed: {listError}
@@ -118,7 +126,13 @@ function RunChainDialog({ capture, onClose }: RunChainProps & { onClose: () => v
         {chains?.map((c) => (
           <li key={c.id}>
             <label className="flex cursor-pointer items-start gap-3 px-3 py-2 hover:bg-surface">
-              <input type="radio" name="run-chain" className="mt-1 h-4 w-4 accent-[rgb(var(--q-accent))]" checked={chain?.id === c.id} onChange={() => setChain(c)} />
+              <input
+                type="radio"
+                name="run-chain"
+                className="mt-1 h-4 w-4 accent-[rgb(var(--q-accent))]"
+                checked={chain?.id === c.id}
+                onChange={() => setChain(c)}
+              />
               <span className="min-w-0 flex-1">
                 <span className="block truncate text-sm font-medium">{c.name}</span>
                 <span className="flex flex-wrap gap-x-3 text-xs text-muted">
@@ -136,12 +150,7 @@ function RunChainDialog({ capture, onClose }: RunChainProps & { onClose: () => v
           <label className={label} htmlFor="run-chain-revision">
             Revision of {chain.name}
           </label>
-          <select
-            id="run-chain-revision"
-            className={input}
-            value={revision ?? chain.latestRevision}
-            onChange={(e) => setRevision(Number(e.target.value))}
-          >
+          <select id="run-chain-revision" className={input} value={revision ?? chain.latestRevision} onChange={(e) => setRevision(Number(e.target.value))}>
             {(revisions.length > 0 ? revisions : [{ revision: chain.latestRevision, message: '', createdAt: '' } as Revision]).map((r) => (
               <option key={r.revision} value={r.revision}>
                 r{r.revision}

@@ -1,5 +1,6 @@
 import { useState } from 'react';
 import { QueryClient, QueryClientProvider, useQuery, useQueryClient } from '@tanstack/react-query';
+import { formatQuantity } from '@/lib/units';
 import { cancelRun, fetchRun, retryRun } from './api';
 import { shortId } from './format';
 import { useRunEvents } from './hooks';
@@ -82,13 +83,17 @@ function RunDetailBody({ initialRun }: RunDetailProps) {
       {results && (
         <div className="grid items-start gap-6 2xl:grid-cols-[minmax(0,1fr)_30rem]">
           <div className="min-w-0 space-y-6">
-            {plotted.length === 0 && <p className="rounded-lg border border-dashed border-line bg-panel p-6 text-sm text-muted">No probe of this chain keeps a spectrum, a spectrogram or a trace.</p>}
+            {plotted.length === 0 && (
+              <p className="rounded-lg border border-dashed border-line bg-panel p-6 text-sm text-muted">
+                No probe of this chain keeps a spectrum, a spectrogram or a trace.
+              </p>
+            )}
             {plotted.map((probe) => (
               <section key={probe.stageId} aria-labelledby={`probe-${probe.stageId}`} className="space-y-3">
                 <h2 id={`probe-${probe.stageId}`} className="flex flex-wrap items-baseline gap-x-3 text-lg font-semibold">
                   Probe <span className="font-mono text-base">{probe.stageId}</span>
                   <span className="text-sm font-normal text-muted">
-                    {probe.kind} stage · {probe.format.sampleType} output
+                    {probe.kind} stage · {probe.format.sampleType} output at {formatQuantity(probe.format.sampleRate, 'sps')}
                   </span>
                 </h2>
                 <ProbePlots runId={id} probe={probe} fileBase={fileBase} />

@@ -21,7 +21,9 @@ export function RunExports({ runId, results }: { runId: string; results: RunResu
       </h2>
       <dl className="mt-2 grid grid-cols-[auto_1fr] items-center gap-x-4 gap-y-2 text-sm">
         <dt className="text-muted">Results</dt>
-        <dd className="flex flex-wrap gap-1.5">{link(exportUrl(runId, 'json'), 'results.json', 'Everything the run produced, in the command line’s results.json shape')}</dd>
+        <dd className="flex flex-wrap gap-1.5">
+          {link(exportUrl(runId, 'json'), 'results.json', 'Everything the run produced, in the command line’s results.json shape')}
+        </dd>
         {hasReadouts && (
           <>
             <dt className="text-muted">Readouts</dt>
@@ -33,7 +35,13 @@ export function RunExports({ runId, results }: { runId: string; results: RunResu
             <dt className="text-muted">Spectra</dt>
             <dd className="flex flex-wrap gap-1.5">
               {spectra.map((p) => (
-                <span key={p.stageId}>{link(exportUrl(runId, 'csv-spectrum', p.stageId), spectra.length > 1 ? `${p.stageId} CSV` : 'CSV', `Every bin of the spectrum at ${p.stageId}: frequency (Hz) and level`)}</span>
+                <span key={p.stageId}>
+                  {link(
+                    exportUrl(runId, 'csv-spectrum', p.stageId),
+                    spectra.length > 1 ? `${p.stageId} CSV` : 'CSV',
+                    `Every bin of the spectrum at ${p.stageId}: frequency (Hz) and level`,
+                  )}
+                </span>
               ))}
             </dd>
           </>

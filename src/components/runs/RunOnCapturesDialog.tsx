@@ -133,7 +133,15 @@ function RunOnCapturesDialog({ chainId, chainName, revision, unsavedEdits, onClo
       <label className="sr-only" htmlFor="run-capture-search">
         Search captures
       </label>
-      <input id="run-capture-search" className={input} type="search" placeholder="Search captures by name, notes or tag" value={search} onChange={(e) => setSearch(e.target.value)} autoFocus />
+      <input
+        id="run-capture-search"
+        className={input}
+        type="search"
+        placeholder="Search captures by name, notes or tag"
+        value={search}
+        onChange={(e) => setSearch(e.target.value)}
+        autoFocus
+      />
       {listError && (
         <p role="alert" className="mt-3 text-sm text-danger">
           The captures could not be listed: {listError}
@@ -141,7 +149,9 @@ function RunOnCapturesDialog({ chainId, chainName, revision, unsavedEdits, onClo
       )}
       <ul className="mt-3 divide-y divide-line rounded-md border border-line" aria-label="Captures">
         {captures === null && !listError && <li className="px-3 py-4 text-sm text-muted">Loading the captures…</li>}
-        {captures?.length === 0 && <li className="px-3 py-4 text-sm text-muted">{q ? 'No capture matches.' : 'No captures yet: upload or synthesize one first.'}</li>}
+        {captures?.length === 0 && (
+          <li className="px-3 py-4 text-sm text-muted">{q ? 'No capture matches.' : 'No captures yet: upload or synthesize one first.'}</li>
+        )}
         {captures?.map((capture) => {
           const blocker = blockers.get(capture.id);
           return (

@@ -24,7 +24,9 @@ export function RunProgress({ status, progress, currentStage, etaSeconds, compac
     status === 'queued'
       ? 'waiting for a worker'
       : status === 'running'
-        ? [currentStage ? `stage ${currentStage}` : 'starting', etaSeconds !== null ? `about ${formatDuration(etaSeconds)} left` : null].filter(Boolean).join(' · ')
+        ? [currentStage ? `stage ${currentStage}` : 'starting', etaSeconds !== null ? `about ${formatDuration(etaSeconds)} left` : null]
+            .filter(Boolean)
+            .join(' · ')
         : null;
   return (
     <div className={compact ? 'w-36' : 'w-full'} data-testid="run-progress" data-progress={fraction.toFixed(3)}>

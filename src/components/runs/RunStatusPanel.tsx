@@ -20,7 +20,12 @@ export function RunStatusPanel({ run, busy, onCancel, onRetry, actionError }: Ru
   const now = useClock(run.status === 'running');
   const results = run.results;
   return (
-    <section aria-label="Status" className="grid gap-x-8 gap-y-4 rounded-lg border border-line bg-panel p-5 lg:grid-cols-[minmax(0,1fr)_minmax(0,26rem)]" data-testid="run-status" data-status={run.status}>
+    <section
+      aria-label="Status"
+      className="grid gap-x-8 gap-y-4 rounded-lg border border-line bg-panel p-5 lg:grid-cols-[minmax(0,1fr)_minmax(0,26rem)]"
+      data-testid="run-status"
+      data-status={run.status}
+    >
       <div className="min-w-0 space-y-4">
         <div className="flex flex-wrap items-center gap-2">
           <StatusBadge status={run.status} />
@@ -28,7 +33,10 @@ export function RunStatusPanel({ run, busy, onCancel, onRetry, actionError }: Ru
           <span className="text-sm text-muted">
             {run.status === 'queued' && 'Waiting for a free worker; the page updates by itself.'}
             {run.status === 'running' && 'Running on the server; you can leave this page and come back.'}
-            {run.status === 'succeeded' && (run.fromCache ? 'Answered from the cache: the same revision already ran on this capture with this engine.' : 'Finished; the plots and readouts are below.')}
+            {run.status === 'succeeded' &&
+              (run.fromCache
+                ? 'Answered from the cache: the same revision already ran on this capture with this engine.'
+                : 'Finished; the plots and readouts are below.')}
             {run.status === 'cancelled' && 'Cancelled before it finished; nothing was kept.'}
             {run.status === 'failed' && 'Stopped with an error; nothing was kept.'}
           </span>

@@ -167,7 +167,14 @@ function RunsTableBody({ initialList, canSeeQueue }: RunsTableProps) {
             {selected.length > 0 ? `${selected.length} selected` : 'Select two or more succeeded runs to compare them'}
           </span>
           {selected.length > 0 && (
-            <button type="button" className="text-xs text-muted underline hover:text-ink" onClick={() => { setSelection({}); setSelectedRuns({}); }}>
+            <button
+              type="button"
+              className="text-xs text-muted underline hover:text-ink"
+              onClick={() => {
+                setSelection({});
+                setSelectedRuns({});
+              }}
+            >
               Clear
             </button>
           )}
@@ -176,7 +183,12 @@ function RunsTableBody({ initialList, canSeeQueue }: RunsTableProps) {
               Compare {selected.length} runs
             </a>
           ) : (
-            <button type="button" className={buttonPrimary} disabled title={selected.length > 10 ? 'Compare at most ten runs at once' : 'Select at least two runs'}>
+            <button
+              type="button"
+              className={buttonPrimary}
+              disabled
+              title={selected.length > 10 ? 'Compare at most ten runs at once' : 'Select at least two runs'}
+            >
               Compare
             </button>
           )}
@@ -248,9 +260,7 @@ function RunsTableBody({ initialList, canSeeQueue }: RunsTableProps) {
             {list.runs.length === 0 && (
               <tr>
                 <td colSpan={columns.length} className="px-3 py-10 text-center whitespace-normal text-muted">
-                  {status
-                    ? 'No run has this status.'
-                    : 'No runs yet. Open a chain and choose “Run on captures…”, or open a capture and run a chain on it.'}
+                  {status ? 'No run has this status.' : 'No runs yet. Open a chain and choose “Run on captures…”, or open a capture and run a chain on it.'}
                 </td>
               </tr>
             )}

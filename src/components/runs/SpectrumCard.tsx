@@ -1,16 +1,18 @@
 import { useCallback, useMemo, useState } from 'react';
-import type { PlotMouseEvent, PlotRelayoutEvent } from 'plotly.js-dist-min';
+import type { Config, PlotMouseEvent, PlotRelayoutEvent } from 'plotly.js-dist-min';
 import Plot, { PlotPlaceholder } from '../plots/Plot';
 import { usePlotTheme } from '../plots/plot-theme';
 import { formatQuantity } from '@/lib/units';
 import { usePlotData, usePlotWidth } from './hooks';
 import { MarkerPanel } from './MarkerPanel';
 import { markerAt, markerAtBin, medianLevel, type Marker, type MarkerName } from './markers';
-import { PlotCard } from './PlotCard';
+import { PlotCard, plotConfig } from './PlotCard';
 import { fromAxis, frequencyAxis, MARKER_SHAPES, spectrumFigure } from './run-figures';
 import type { ResultProbe } from './types';
 
 const HEIGHT = 340;
+// Marker lines are the only shapes, so letting shapes move lets the markers be dragged.
+const spectrumConfig: Partial<Config> = { ...plotConfig, edits: { shapePosition: true } };
 
 export interface SpectrumCardProps {
   runId: string;
@@ -37,14 +39,17 @@ export function SpectrumCard({ runId, probe, fileBase }: SpectrumCardProps) {
     () => frequencyAxis(probe.format, full.frequencies[0] ?? 0, full.frequencies[full.frequencies.length - 1] ?? 1),
     [probe.format, full.frequencies],
   );
-  const figure = useMemo(() => (plot.data ? spectrumFigure({ data: plot.data, axis, noiseFloor, markers, theme }) : null), [plot.data, axis, noiseFloor, markers, theme]);
-
-  const place = useCallback(
-    (name: MarkerName, marker: Marker) => {
-      setMarkers((m) => ({ ...m, [name]: marker }));
-    },
-    [],
+  const figure = useMemo(
+    () => (plot.data ? spectrumFigure({ data: plot.data, axis, noiseFloor, markers, theme }) : null),
+    [plot.data, axis, noiseFloor, markers, theme],
   );
+
+  // Placing the marker a click would place hands the next click to the other one, so two clicks
+  // (or "Peak" then a click) give A and B.
+  const place = useCallback((name: MarkerName, marker: Marker) => {
+    setMarkers((m) => ({ ...m, [name]: marker }));
+    setNext((current) => (current === name ? (name === 'A' ? 'B' : 'A') : current));
+  }, []);
 
   const onClick = useCallback(
     (event: PlotMouseEvent) => {
@@ -55,7 +60,6 @@ export function SpectrumCard({ runId, probe, fileBase }: SpectrumCardProps) {
       const frequency = plot.data.frequencies[point.pointIndex];
       if (frequency === undefined) return;
       place(next, markerAt(full, frequency));
-      setNext(next === 'A' ? 'B' : 'A');
     },
     [plot.data, full, next, place],
   );
@@ -65,24 +69,39 @@ export function SpectrumCard({ runId, probe, fileBase }: SpectrumCardProps) {
       const changes = event as Record<string, unknown>;
       MARKER_SHAPES.forEach((name, index) => {
         const x = changes[`shapes[${index}].x0`];
-        if (typeof x === 'number') place(name, markerAt(full, fromAxis(axis, x)));
+        // A dragged marker moves; it does not change which marker the next click places.
+        if (typeof x === 'number') setMarkers((m) => ({ ...m, [name]: markerAt(full, fromAxis(axis, x)) }));
       });
     },
-    [full, axis, place],
+    [full, axis],
   );
 
   const peak = full.peak;
   const note = (
     <>
       RBW {formatQuantity(full.resolutionBandwidth, 'Hz')} · {full.segments} segments · peak{' '}
-      {peak.level !== null ? `${formatQuantity(peak.frequency + axis.offset, 'Hz', { significant: 9 })} at ${formatQuantity(peak.level, full.unit, { decimals: 1 })}` : 'none'}
+      {peak.level !== null
+        ? `${formatQuantity(peak.frequency + axis.offset, 'Hz', { significant: 9 })} at ${formatQuantity(peak.level, full.unit, { decimals: 1 })}`
+        : 'none'}
       {noiseFloor !== null && <> · noise floor {formatQuantity(noiseFloor, full.unit, { decimals: 1 })} (median)</>}
-      {plot.data && <> · {plot.data.frequencies.length.toLocaleString('en')} of {full.frequencies.length.toLocaleString('en')} bins drawn</>}
+      {plot.data && (
+        <>
+          {' '}
+          · {plot.data.frequencies.length.toLocaleString('en')} of {full.frequencies.length.toLocaleString('en')} bins drawn
+        </>
+      )}
     </>
   );
 
   return (
-    <PlotCard ref={box} title={`Spectrum at ${probe.stageId}`} note={note} graph={graph} fileName={`${fileBase}-spectrum-${probe.stageId}`} testId={`spectrum-card-${probe.stageId}`}>
+    <PlotCard
+      ref={box}
+      title={`Spectrum at ${probe.stageId}`}
+      note={note}
+      graph={graph}
+      fileName={`${fileBase}-spectrum-${probe.stageId}`}
+      testId={`spectrum-card-${probe.stageId}`}
+    >
       {figure ? (
         <Plot
           label={`Spectrum at ${probe.stageId}`}
@@ -90,7 +109,7 @@ export function SpectrumCard({ runId, probe, fileBase }: SpectrumCardProps) {
           height={HEIGHT}
           data={figure.data}
           layout={figure.layout}
-          config={{ edits: { shapePosition: true }, doubleClick: 'reset' }}
+          config={spectrumConfig}
           onClick={onClick}
           onRelayout={onRelayout}
           onReady={setGraph}
@@ -106,7 +125,7 @@ export function SpectrumCard({ runId, probe, fileBase }: SpectrumCardProps) {
         onNext={setNext}
         onStep={(name, step) => {
           const marker = markers[name];
-          if (marker) place(name, markerAtBin(full, marker.index + step));
+          if (marker) setMarkers((m) => ({ ...m, [name]: markerAtBin(full, marker.index + step) }));
         }}
         onPeak={(name) => {
           if (peak.level !== null) place(name, markerAt(full, peak.frequency));

@@ -9,7 +9,15 @@ import type { ComparedSpectrum, Run } from './types';
 
 // After the theme's three series colours, further runs take colours that stay apart on both the
 // light and the dark panel.
-const EXTRA_COLOURS = ['rgba(22, 163, 74, 1)', 'rgba(219, 39, 119, 1)', 'rgba(202, 138, 4, 1)', 'rgba(100, 116, 139, 1)', 'rgba(8, 145, 178, 1)', 'rgba(220, 38, 38, 1)', 'rgba(79, 70, 229, 1)'];
+const EXTRA_COLOURS = [
+  'rgba(22, 163, 74, 1)',
+  'rgba(219, 39, 119, 1)',
+  'rgba(202, 138, 4, 1)',
+  'rgba(100, 116, 139, 1)',
+  'rgba(8, 145, 178, 1)',
+  'rgba(220, 38, 38, 1)',
+  'rgba(79, 70, 229, 1)',
+];
 
 /** Colour of the run at `index` in the comparison. */
 export function runColour(theme: PlotTheme, index: number): string {

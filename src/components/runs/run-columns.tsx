@@ -41,7 +41,11 @@ export function runColumns(actions: RunRowActions): ColumnDef<Run, any>[] {
     column.accessor('status', {
       header: 'Status',
       cell: ({ row }) => (
-        <a href={`/runs/${row.original.id}`} className="inline-flex items-center gap-1.5 rounded hover:opacity-80" aria-label={`Open the run (${row.original.status})`}>
+        <a
+          href={`/runs/${row.original.id}`}
+          className="inline-flex items-center gap-1.5 rounded hover:opacity-80"
+          aria-label={`Open the run (${row.original.status})`}
+        >
           <StatusBadge status={row.original.status} />
           {row.original.fromCache && <CacheMarker />}
         </a>
@@ -80,7 +84,11 @@ export function runColumns(actions: RunRowActions): ColumnDef<Run, any>[] {
       id: 'capture',
       header: 'Capture',
       cell: ({ row }) => (
-        <a href={`/captures/${row.original.capture.id}`} className="block max-w-[20rem] truncate text-ink hover:text-accent hover:underline" title={row.original.capture.name}>
+        <a
+          href={`/captures/${row.original.capture.id}`}
+          className="block max-w-[20rem] truncate text-ink hover:text-accent hover:underline"
+          title={row.original.capture.name}
+        >
           {row.original.capture.name}
         </a>
       ),

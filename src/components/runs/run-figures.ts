@@ -104,7 +104,7 @@ export function spectrumFigure({ data, axis, noiseFloor, markers, theme }: Spect
   for (const name of MARKER_SHAPES) {
     const marker = markers[name];
     // A shape per marker name keeps shape indices stable, so a drag maps back to its marker.
-    const at = marker ? toAxis(axis, marker.frequency) : x[0] ?? 0;
+    const at = marker ? toAxis(axis, marker.frequency) : (x[0] ?? 0);
     shapes.push({
       type: 'line',
       xref: 'x',
@@ -209,8 +209,29 @@ export function traceFigure(data: TracePlotData, theme: PlotTheme): Figure {
       traces.push({ type: 'scatter', mode: 'lines', name, x: times, y: channel.max, line: { color: colour, width: 1 }, hovertemplate: hover });
       return;
     }
-    traces.push({ type: 'scatter', mode: 'lines', name, legendgroup: name, showlegend: false, x: times, y: channel.min, line: { color: colour, width: 0.75 }, hovertemplate: hover });
-    traces.push({ type: 'scatter', mode: 'lines', name, legendgroup: name, x: times, y: channel.max, fill: 'tonexty', fillcolor: fill, line: { color: colour, width: 0.75 }, hovertemplate: hover });
+    traces.push({
+      type: 'scatter',
+      mode: 'lines',
+      name,
+      legendgroup: name,
+      showlegend: false,
+      x: times,
+      y: channel.min,
+      line: { color: colour, width: 0.75 },
+      hovertemplate: hover,
+    });
+    traces.push({
+      type: 'scatter',
+      mode: 'lines',
+      name,
+      legendgroup: name,
+      x: times,
+      y: channel.max,
+      fill: 'tonexty',
+      fillcolor: fill,
+      line: { color: colour, width: 0.75 },
+      hovertemplate: hover,
+    });
   });
   return {
     data: traces,

@@ -1,0 +1,184 @@
+/**
+ * Runs as an operator uses them, in Debian's chromium against the built server with the demo data
+ * and one run at a time: rerun the demo "Front-end balance check" chain on the rev A and rev B
+ * captures from the chain page, watch both finish on the runs list, read one run's spectrum,
+ * markers and readouts, then compare the two.
+ *
+ * Set QUADRILLE_SHOTS_DIR to also save screenshots of each screen at 1280 and 2560 px, light and dark.
+ */
+import { existsSync, mkdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import { startServer, type TestServer } from '../helpers/server';
+
+const chromiumPath = '/usr/bin/chromium';
+const hasChromium = existsSync(chromiumPath);
+if (!hasChromium) console.warn(`Skipping the runs browser test: ${chromiumPath} is absent (apt-get install -y chromium).`);
+
+const launchOptions = {
+  executablePath: chromiumPath,
+  headless: true,
+  args: [
+    '--no-sandbox',
+    '--disable-gpu',
+    '--disable-dev-shm-usage',
+    '--disable-background-networking',
+    '--disable-component-update',
+    '--disable-sync',
+    '--no-first-run',
+  ],
+};
+
+const shotsDir = process.env.QUADRILLE_SHOTS_DIR;
+const chainName = 'Front-end balance check';
+const revA = /Saltmarsh rev A/;
+const revB = /Saltmarsh rev B/;
+
+// Runs on a loaded two-core machine take seconds each; the whole flow gets a few minutes.
+describe.skipIf(!hasChromium)('runs in a browser', { timeout: 180_000 }, () => {
+  let server: TestServer;
+  let browser: Browser;
+  let context: BrowserContext;
+  let page: Page;
+  let runIds: string[] = [];
+
+  beforeAll(async () => {
+    server = await startServer({ env: { QUADRILLE_RUN_CONCURRENCY: '1' } });
+    browser = await chromium.launch(launchOptions);
+    context = await browser.newContext({ viewport: { width: 1280, height: 900 }, baseURL: server.baseUrl, acceptDownloads: true });
+    page = await context.newPage();
+  }, 60_000);
+
+  afterAll(async () => {
+    await context?.close();
+    await browser?.close();
+    await server?.stop();
+  });
+
+  /** Screenshots of the page as it is at 1280 and 2560 px, light and dark (only with QUADRILLE_SHOTS_DIR). */
+  async function shoot(name: string): Promise<void> {
+    if (!shotsDir) return;
+    mkdirSync(shotsDir, { recursive: true });
+    for (const width of [1280, 2560]) {
+      for (const scheme of ['light', 'dark'] as const) {
+        await page.setViewportSize({ width, height: width === 1280 ? 900 : 1400 });
+        await page.emulateMedia({ colorScheme: scheme });
+        // Plots resize and re-theme on the next frames.
+        await page.waitForTimeout(800);
+        await page.screenshot({ path: join(shotsDir, `${name}-${width}-${scheme}.png`), fullPage: true });
+      }
+    }
+    await page.setViewportSize({ width: 1280, height: 900 });
+    await page.emulateMedia({ colorScheme: 'light' });
+  }
+
+  it('signs the operator in', async () => {
+    await page.goto('/sign-in');
+    await page.locator('form[data-ready]').waitFor();
+    await page.getByLabel('E-mail').fill('operator@saltmarsh.test');
+    await page.getByLabel('Password').fill('quadrille-demo');
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.waitForURL(server.baseUrl + '/');
+  });
+
+  it('reruns the demo chain on the rev A and rev B captures from the chain page', async () => {
+    const chain = await server.db('chains').where({ name: chainName }).first('id');
+    expect(chain, 'the demo chain is seeded').toBeTruthy();
+    await page.goto(`/chains/${chain.id}`);
+    await page.getByTestId('run-on-captures').click();
+    const dialog = page.getByRole('dialog');
+    await dialog.getByRole('checkbox', { name: revA }).check();
+    await dialog.getByRole('checkbox', { name: revB }).check();
+    await shoot('dialog-run-on-captures');
+    await dialog.getByTestId('run-dialog-submit').click();
+    await page.waitForURL(server.baseUrl + '/runs');
+  });
+
+  it('shows both runs finish on the runs list', async () => {
+    const rows = page.locator('tr[data-run-id]');
+    await expect.poll(() => rows.count()).toBe(2);
+    await expect.poll(() => page.locator('tr[data-run-id][data-status="succeeded"]').count(), { timeout: 120_000, intervals: [500] }).toBe(2);
+    runIds = await rows.evaluateAll((trs) => trs.map((tr) => tr.getAttribute('data-run-id')!));
+    const text = await page.getByTestId('runs-table').textContent();
+    expect(text).toContain(chainName);
+    expect(text).toMatch(revA);
+    expect(text).toMatch(revB);
+    // Finished runs show a full bar.
+    expect(await page.locator('tr[data-run-id] [role="progressbar"]').evaluateAll((bars) => bars.map((b) => b.getAttribute('aria-valuenow')))).toEqual([
+      '100',
+      '100',
+    ]);
+    await shoot('runs-list');
+  });
+
+  it('opens the rev A run and shows its spectrum, markers and readouts', async () => {
+    await page.locator('tr[data-run-id]', { hasText: revA }).getByRole('link', { name: 'Open', exact: true }).click();
+    await page.waitForURL(/\/runs\/[^/]+$/);
+    const plot = page.locator('[data-testid="spectrum-plot-band-spectrum"][data-plot-ready]');
+    await plot.waitFor({ timeout: 60_000 });
+    // The reduced trace never has more points than the plot is wide.
+    const points = await plot.evaluate((figure) => {
+      const graph = figure.querySelector('.js-plotly-plot') as unknown as { data: { x: number[] }[]; clientWidth: number };
+      return { points: graph.data[0]!.x.length, width: graph.clientWidth };
+    });
+    expect(points.points).toBeGreaterThan(100);
+    expect(points.points).toBeLessThanOrEqual(points.width);
+
+    const readouts = page.getByTestId('readouts-table');
+    await readouts.waitFor();
+    const phase = await readouts.locator('tr', { hasText: 'I/Q phase imbalance' }).textContent();
+    // Rev A was synthesized with about 2 degrees of phase imbalance (the demo scenario).
+    expect(phase).toMatch(/\d/);
+
+    // Marker A on the peak, marker B by a click on the plot; the difference row fills in.
+    const panel = page.getByTestId('marker-panel');
+    await panel.locator('tr[data-marker="A"]').getByRole('button', { name: 'Peak' }).click();
+    await expect.poll(() => page.getByTestId('marker-A-frequency').textContent()).toMatch(/Hz/);
+    const area = await plot.locator('.nsewdrag').boundingBox();
+    expect(area).not.toBeNull();
+    await page.mouse.click(area!.x + area!.width * 0.25, area!.y + area!.height * 0.5);
+    await expect.poll(() => page.getByTestId('marker-B-frequency').textContent()).toMatch(/Hz/);
+    expect(await page.getByTestId('marker-difference').textContent()).toMatch(/ΔF.*Hz.*ΔL.*dB/);
+
+    // PNG of the plot as drawn.
+    const [download] = await Promise.all([
+      page.waitForEvent('download'),
+      page.getByTestId('spectrum-card-band-spectrum').getByRole('button', { name: 'PNG', exact: true }).click(),
+    ]);
+    expect(download.suggestedFilename()).toMatch(/spectrum-band-spectrum\.png$/);
+    const png = readFileSync((await download.path())!);
+    expect([...png.subarray(0, 4)]).toEqual([0x89, 0x50, 0x4e, 0x47]);
+
+    // results.json from the export link parses and names the probes.
+    const href = await page.getByTestId('run-exports').getByRole('link', { name: 'results.json' }).getAttribute('href');
+    const results = await (await page.request.get(href!)).json();
+    expect(results.probes.map((p: { stageId: string }) => p.stageId)).toEqual(['band-spectrum', 'balance']);
+    await shoot('run-page');
+  });
+
+  it('compares the two runs: both spectra overlaid and the readout differences', async () => {
+    await page.goto('/runs');
+    for (const name of [revA, revB]) await page.locator('tr[data-run-id]', { hasText: name }).getByRole('checkbox').check();
+    await page.getByTestId('compare-selected').click();
+    await page.waitForURL(/\/runs\/compare\?ids=/);
+    const plot = page.locator('[data-testid="compare-plot-band-spectrum"][data-plot-ready]');
+    await plot.waitFor({ timeout: 60_000 });
+    const names = await plot.evaluate((figure) =>
+      (figure.querySelector('.js-plotly-plot') as unknown as { data: { name: string }[] }).data.map((trace) => trace.name),
+    );
+    expect(names).toHaveLength(2);
+    expect(names.some((name) => revA.test(name))).toBe(true);
+    expect(names.some((name) => revB.test(name))).toBe(true);
+    expect(names.every((name) => name.includes('r1'))).toBe(true);
+
+    const table = page.getByTestId('compare-readouts');
+    const phaseRow = table.locator('tr', { hasText: 'I/Q phase imbalance' });
+    expect(await phaseRow.locator('td').count()).toBe(4);
+    expect(await phaseRow.textContent()).toMatch(/[+-]\d/);
+    // Rev B fixes most of rev A's imbalance, so at least one difference stands out.
+    expect(await table.locator('[data-large-difference]').count()).toBeGreaterThan(0);
+    expect(new Set(runIds).size).toBe(2);
+    await shoot('compare');
+  });
+});
