@@ -12,7 +12,8 @@ import { openDb } from '@/lib/server/db';
 import { migrateToLatest } from '@/lib/server/db/migration-source';
 import { seedDemo } from '@/lib/server/seed';
 
-const entry = resolve('dist/server/entry.mjs');
+// QUADRILLE_TEST_ENTRY points at another build (one engineer's outDir) without touching dist/.
+const entry = resolve(process.env.QUADRILLE_TEST_ENTRY ?? 'dist/server/entry.mjs');
 
 export interface TestServer {
   /** e.g. http://127.0.0.1:40123 */

@@ -91,7 +91,7 @@ export default function QuickLook({ capture }: QuickLookProps) {
             </PlotCard>
           </div>
         </div>
-        <div className="space-y-4">
+        <div className="grid content-start items-start gap-4 lg:grid-cols-2 2xl:grid-cols-1">
           {result ? (
             <BalanceReport balance={result.balance} layout={capture.layout} samples={result.samples} sampleRate={capture.sampleRate} />
           ) : (

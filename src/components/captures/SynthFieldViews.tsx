@@ -34,7 +34,7 @@ export function FieldView({ field, name }: { field: FieldModel; name: string }) 
       return <LeafField field={field} name={name} />;
     case 'group':
       return (
-        <div className="grid gap-3 sm:grid-cols-2 2xl:grid-cols-3">
+        <div className="grid gap-3 sm:grid-cols-2 xl:grid-cols-3">
           {field.fields.map((f) => (
             <FieldView key={f.key} field={f} name={`${name}.${f.key}`} />
           ))}
@@ -147,7 +147,7 @@ function VariantField({ field, name }: { field: Extract<FieldModel, { kind: 'var
   const tagInfo = { label: field.discriminator === 'mode' ? field.label : 'Modulation' };
   const registration = register(tagName);
   return (
-    <div className="grid gap-3 sm:grid-cols-2 2xl:grid-cols-3">
+    <div className="grid gap-3 sm:grid-cols-2 xl:grid-cols-3">
       <div>
         <label htmlFor={id} className="mb-1 block text-sm font-medium">
           {tagInfo.label}

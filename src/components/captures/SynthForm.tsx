@@ -121,7 +121,7 @@ export default function SynthForm() {
                 </select>
               </label>
             </div>
-            <div className="grid gap-3 sm:grid-cols-2 2xl:grid-cols-3">
+            <div className="grid gap-3 sm:grid-cols-2 xl:grid-cols-3">
               {simple.map((f) => (
                 <FieldView key={f.key} field={f} name={f.key} />
               ))}

@@ -145,22 +145,35 @@ export default function UploadPanel() {
   }
 
   return (
-    <form onSubmit={submit} noValidate aria-labelledby="upload-title" className="rounded-lg border border-line bg-panel p-5" data-testid="upload-panel" data-ready={ready || undefined}>
+    <form onSubmit={submit} noValidate aria-labelledby="upload-title" className="@container rounded-lg border border-line bg-panel p-5" data-testid="upload-panel" data-ready={ready || undefined}>
       <h2 id="upload-title" className="text-lg font-semibold">
         Upload a capture
       </h2>
       <p className="mt-1 text-sm text-muted">A .sigmf-meta with its .sigmf-data, a .sigmf archive, a WAV file, or raw samples. Large files resume after a dropped connection.</p>
 
-      <div className="mt-4 space-y-4">
-        <FilePicker inputRef={fileInput} picked={picked} error={errors.file} disabled={busy} onPick={pick} />
-        {picked?.note && <p className="text-xs text-muted">{picked.note}</p>}
+      {/* Two columns in the narrow sidebar, six when the panel spans the page: a container query, not the viewport. */}
+      <div className="mt-4 grid grid-cols-2 gap-4 @3xl:grid-cols-6">
+        <div className="col-span-2 @3xl:col-span-6">
+          <FilePicker inputRef={fileInput} picked={picked} error={errors.file} disabled={busy} onPick={pick} />
+          {picked?.note && <p className="mt-1 text-xs text-muted">{picked.note}</p>}
+        </div>
 
-        <Field label="Name" name="name" value={values.name} onChange={set('name')} error={errors.name} disabled={busy} maxLength={200} />
+        <div className="col-span-2 @3xl:col-span-4">
+          <Field label="Name" name="name" value={values.name} onChange={set('name')} error={errors.name} disabled={busy} maxLength={200} />
+        </div>
+        <div className="col-span-2">
+          <Select label="Visibility" value={values.visibility} onChange={set('visibility')} error={errors.visibility} disabled={busy}>
+            <option value="team">Team: every signed-in user reads it</option>
+            <option value="private">Private: only you</option>
+          </Select>
+        </div>
 
         {fromFile ? (
-          <FileFacts picked={picked!} />
+          <div className="col-span-2 @3xl:col-span-4">
+            <FileFacts picked={picked!} />
+          </div>
         ) : (
-          <div className="grid grid-cols-2 gap-3">
+          <>
             <Select label="Datatype" value={values.datatype} onChange={set('datatype')} error={errors.datatype} disabled={busy} mono>
               {SIGMF_DATATYPES.map((d) => (
                 <option key={d}>{d}</option>
@@ -173,29 +186,30 @@ export default function UploadPanel() {
                 </option>
               ))}
             </Select>
-          </div>
+          </>
         )}
         {picked?.kind === 'wav' && picked.stated.layout === 'real-pair' && (
-          <Select label="Two channels are" value={values.layout} onChange={set('layout')} error={errors.layout} disabled={busy}>
-            <option value="real-pair">Two real channels (stored as they are)</option>
-            <option value="complex">I (left) and Q (right): store as complex</option>
-          </Select>
+          <div className="col-span-2">
+            <Select label="Two channels are" value={values.layout} onChange={set('layout')} error={errors.layout} disabled={busy}>
+              <option value="real-pair">Two real channels (stored as they are)</option>
+              <option value="complex">I (left) and Q (right): store as complex</option>
+            </Select>
+          </div>
         )}
         {(!fromFile || picked?.stated.sampleRate === undefined) && (
-          <SiField label="Sample rate" unit="Hz" aliases={['sps', 'S/s']} placeholder="e.g. 4M or 4 MHz" value={values.sampleRate} onChange={set('sampleRate')} error={errors.sampleRate} disabled={busy} />
+          <div className="col-span-2">
+            <SiField label="Sample rate" unit="Hz" aliases={['sps', 'S/s']} placeholder="e.g. 4M or 4 MHz" value={values.sampleRate} onChange={set('sampleRate')} error={errors.sampleRate} disabled={busy} />
+          </div>
         )}
         {picked?.kind !== 'sigmf' && (
-          <SiField label="Centre frequency (optional)" unit="Hz" placeholder="e.g. 2.412 GHz" value={values.centerFrequency} onChange={set('centerFrequency')} error={errors.centerFrequency} disabled={busy} />
+          <div className="col-span-2">
+            <SiField label="Centre frequency (optional)" unit="Hz" placeholder="e.g. 2.412 GHz" value={values.centerFrequency} onChange={set('centerFrequency')} error={errors.centerFrequency} disabled={busy} />
+          </div>
         )}
-
-        <div className="grid grid-cols-2 gap-3">
-          <Select label="Visibility" value={values.visibility} onChange={set('visibility')} error={errors.visibility} disabled={busy}>
-            <option value="team">Team: every signed-in user reads it</option>
-            <option value="private">Private: only you</option>
-          </Select>
+        <div className="col-span-2">
           <Field label="Tags" name="tags" value={values.tags} onChange={set('tags')} error={errors.tags} hint="Comma separated" disabled={busy} />
         </div>
-        <div>
+        <div className="col-span-2 @3xl:col-span-4">
           <label className={labelClass} htmlFor="upload-notes">
             Notes
           </label>

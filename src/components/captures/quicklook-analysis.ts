@@ -3,16 +3,17 @@
  * in the Web Worker and in tests: decode the bytes with the formats code, then the engine's Welch
  * spectrum, spectrogram, min/max trace and blind balance estimate. A two-channel capture is read
  * as I + jQ (channel 0 = I, channel 1 = Q), the layout of a dual ADC on a quadrature demodulator.
+ * Imports are relative: the worker bundle does not see the `@/` alias.
  */
-import { parseDatatype } from '@/dsp/formats/datatype';
-import { SampleDecoder } from '@/dsp/formats/sample-decoder';
-import { WelchAccumulator } from '@/dsp/spectral/welch';
-import { SpectrogramAccumulator } from '@/dsp/spectral/spectrogram';
-import { MinMaxTraceReducer, reduceSpectrumMax } from '@/dsp/spectral/trace-reducer';
-import { estimateIqImbalance } from '@/dsp/measure/iq-imbalance';
-import { imageRejectionDb } from '@/dsp/measure/image-rejection';
-import { dcLevelDbfs } from '@/dsp/measure/sample-moments';
-import type { SampleType, SpectrogramResult, SpectrumResult, TraceResult } from '@/dsp/types';
+import { parseDatatype } from '../../dsp/formats/datatype';
+import { SampleDecoder } from '../../dsp/formats/sample-decoder';
+import { WelchAccumulator } from '../../dsp/spectral/welch';
+import { SpectrogramAccumulator } from '../../dsp/spectral/spectrogram';
+import { MinMaxTraceReducer, reduceSpectrumMax } from '../../dsp/spectral/trace-reducer';
+import { estimateIqImbalance } from '../../dsp/measure/iq-imbalance';
+import { imageRejectionDb } from '../../dsp/measure/image-rejection';
+import { dcLevelDbfs } from '../../dsp/measure/sample-moments';
+import type { SampleType, SpectrogramResult, SpectrumResult, TraceResult } from '../../dsp/types';
 
 /** Samples the quick look reads from the start of a capture: 2^18. */
 export const QUICK_LOOK_SAMPLES = 2 ** 18;

@@ -118,7 +118,10 @@ function channelNames(layout: SampleType): string[] {
   return ['Signal'];
 }
 
-/** I and Q (or the real signal) against time: a min/max band per pixel column and channel. */
+/**
+ * I and Q (or the real signal) against time: a min/max band per pixel column, one panel per
+ * channel on a shared time axis so neither channel hides the other.
+ */
 export function traceFigure(result: QuickLookResult, layout: SampleType, theme: PlotTheme): Figure {
   const { trace } = result;
   const columns = trace.channels[0]?.min.length ?? 0;
@@ -126,25 +129,29 @@ export function traceFigure(result: QuickLookResult, layout: SampleType, theme: 
   const times = new Array<number>(columns);
   for (let c = 0; c < columns; c++) times[c] = (c * trace.samplesPerColumn) / trace.sampleRate / timeScale.divisor;
   const names = channelNames(layout);
+  const two = trace.channels.length === 2;
   const data: Data[] = [];
   trace.channels.forEach((channel, index) => {
     const colour = theme.series[index % theme.series.length];
-    const fill = colour.replace(/, 1\)$/, ', 0.35)');
+    const fill = colour.replace(/, 1\)$/, ', 0.3)');
+    const axis = index === 0 ? 'y' : 'y2';
     const hover = `${names[index]}: %{y:.4f} FS at %{x:.4~f} ${timeScale.unit}<extra></extra>`;
     if (trace.samplesPerColumn === 1) {
-      data.push({ type: 'scatter', mode: 'lines', name: names[index], x: times, y: channel.max, line: { color: colour, width: 1 }, hovertemplate: hover });
+      data.push({ type: 'scatter', mode: 'lines', name: names[index], x: times, y: channel.max, yaxis: axis, line: { color: colour, width: 1 }, hovertemplate: hover });
       return;
     }
-    data.push({ type: 'scatter', mode: 'lines', name: names[index], legendgroup: names[index], showlegend: false, x: times, y: channel.min, line: { color: colour, width: 0.75 }, hovertemplate: hover });
-    data.push({ type: 'scatter', mode: 'lines', name: names[index], legendgroup: names[index], x: times, y: channel.max, fill: 'tonexty', fillcolor: fill, line: { color: colour, width: 0.75 }, hovertemplate: hover });
+    data.push({ type: 'scatter', mode: 'lines', name: names[index], showlegend: false, x: times, y: channel.min, yaxis: axis, line: { color: colour, width: 0.6 }, hovertemplate: hover });
+    data.push({ type: 'scatter', mode: 'lines', name: names[index], showlegend: false, x: times, y: channel.max, yaxis: axis, fill: 'tonexty', fillcolor: fill, line: { color: colour, width: 0.6 }, hovertemplate: hover });
   });
+  const yTitle = (index: number) => `${names[index]} (FS)`;
   return {
     data,
     layout: {
-      showlegend: true,
-      xaxis: { title: { text: axisTitle('Time', timeScale) }, zeroline: false },
-      yaxis: { title: { text: 'Amplitude (FS)' }, zeroline: true },
+      showlegend: false,
       hovermode: 'x',
+      xaxis: { title: { text: axisTitle('Time', timeScale) }, zeroline: false, anchor: two ? 'y2' : 'y' },
+      yaxis: { title: { text: yTitle(0) }, zeroline: true, domain: two ? [0.54, 1] : [0, 1] },
+      ...(two ? { yaxis2: { title: { text: yTitle(1) }, zeroline: true, domain: [0, 0.46] } } : {}),
     },
   };
 }
