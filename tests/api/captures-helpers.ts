@@ -37,7 +37,7 @@ export async function send(
   options: { body?: Uint8Array | ReadableStream<Uint8Array>; headers?: Record<string, string> } = {},
 ): Promise<RawResponse> {
   const headers: Record<string, string> = { cookie: cookieOf(client), origin: client.baseUrl, ...options.headers };
-  const init: RequestInit & { duplex?: 'half' } = { method, headers, body: options.body };
+  const init: RequestInit & { duplex?: 'half' } = { method, headers, body: options.body as BodyInit | undefined };
   if (options.body instanceof ReadableStream) init.duplex = 'half';
   const response = await fetch(client.baseUrl + path, init);
   const bytes = new Uint8Array(await response.arrayBuffer());

@@ -149,6 +149,13 @@ describe('Range requests', () => {
     expect(Buffer.from(response.bytes).equals(Buffer.from(bytes.subarray(start, end + 1)))).toBe(true);
   });
 
+  it('answers HEAD with the headers alone', async () => {
+    const response = await send(engineer, 'HEAD', `/api/captures/${id}/data`);
+    expect(response.status).toBe(200);
+    expect(response.headers.get('content-length')).toBe('10000');
+    expect(response.bytes.length).toBe(0);
+  });
+
   it('answers 416 with the size for a range past the end, and 200 with Accept-Ranges without one', async () => {
     const past = await send(engineer, 'GET', `/api/captures/${id}/data`, { headers: { range: 'bytes=10000-' } });
     expect(past.status).toBe(416);

@@ -8,6 +8,9 @@ import { FormatError, parseSigmfMeta, type SigmfMeta } from '@/dsp/formats';
 import { nextTarEntry, tarPadding, type TarEntry } from '../tar';
 import type { ByteReader } from './byte-reader';
 
+/** Zero padding accepted after the end-of-archive marker (bytes). */
+const MAX_TRAILING_BYTES = 1024 * 1024;
+
 /** Largest `.sigmf-meta` accepted (bytes): room for many thousands of annotations. */
 const MAX_META_BYTES = 4 * 1024 * 1024;
 
@@ -70,5 +73,11 @@ export async function finishSigmfArchive(reader: ByteReader, dataBytes: number):
   const extra = await nextFile(reader);
   if (extra) {
     throw new FormatError(`body: the archive holds "${extra.name}" after the recording; upload one recording per archive`, 'body');
+  }
+  // tar pads an archive with zero blocks up to its record size (10 KiB by default): read them so
+  // the whole body is consumed, but refuse anything else after the end-of-archive marker.
+  const tail = await reader.read(MAX_TRAILING_BYTES + 1);
+  if (tail.byteLength > MAX_TRAILING_BYTES || tail.some((byte) => byte !== 0)) {
+    throw new FormatError('body: unexpected bytes after the end of the archive', 'body');
   }
 }

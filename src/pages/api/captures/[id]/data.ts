@@ -50,5 +50,10 @@ export const GET = endpoint(async (context) => {
     'Cache-Control': 'private, no-cache',
   };
   if (range) headers['Content-Range'] = `bytes ${read.start}-${read.end}/${read.size}`;
+  if (context.request.method === 'HEAD') {
+    // Astro drops a HEAD answer's body unread: close the object's stream here or it stays open.
+    read.stream.destroy();
+    return new Response(null, { status: range ? 206 : 200, headers });
+  }
   return new Response(webStream(read.stream), { status: range ? 206 : 200, headers });
 });

@@ -25,12 +25,13 @@ export const GET = endpoint(async (context) => {
   if (format === 'sigmf-meta') file = exportSigmfMeta(row);
   else if (format === 'wav') file = exportWav(row, getObjectStore());
   else file = exportSigmfArchive(row, getObjectStore());
-  return new Response(webStream(file.body), {
-    headers: {
-      'Content-Type': file.contentType,
-      'Content-Length': String(file.length),
-      'Content-Disposition': contentDisposition(file.fileName),
-      'Cache-Control': 'private, no-cache',
-    },
-  });
+  const headers = {
+    'Content-Type': file.contentType,
+    'Content-Length': String(file.length),
+    'Content-Disposition': contentDisposition(file.fileName),
+    'Cache-Control': 'private, no-cache',
+  };
+  // A HEAD answer's body would be dropped unread, leaving the object's stream open: send none.
+  if (context.request.method === 'HEAD') return new Response(null, { headers });
+  return new Response(webStream(file.body), { headers });
 });
