@@ -93,7 +93,7 @@ describe('reading, cancelling and the admin queue', () => {
     expect(seen).toMatchObject({ chain: { name: quickChain().name }, capture: { name: 'Private capture' } });
     expect((await operator.get('/api/runs?status=bogus')).body.error.field).toBe('status');
     expect((await engineer.get(`/api/runs?status=succeeded&capture_id=${teamCapture}`)).body.runs.map((run: { id: string }) => run.id)).toEqual([team.id]);
-  });
+  }, 180_000);
 
   it('lets an admin cancel any queued or running run, and no one else', async () => {
     const slow = await createChain(engineer, slowChain(), 'private');
@@ -111,7 +111,7 @@ describe('reading, cancelling and the admin queue', () => {
     const refused = await operator.post(`/api/runs/${teamRun.id}/cancel`);
     expect([403, 409]).toContain(refused.status); // 409 if it already finished: either way it was not the operator's to stop
     await waitForRun(engineer, teamRun.id, finished);
-  });
+  }, 180_000);
 });
 
 describe('quotas', () => {
@@ -130,7 +130,7 @@ describe('quotas', () => {
     const rows = await server.db('runs').whereIn('id', batch.map((r: { id: string }) => r.id)).orderBy('started_at');
     // The engineer's second run started only after the first finished.
     expect(new Date(rows[1].started_at).getTime()).toBeGreaterThanOrEqual(new Date(rows[0].finished_at).getTime());
-  });
+  }, 180_000);
 
   it('answers 429 too_many_runs past the waiting-run limit and 429 quota_exceeded with no compute seconds left', async () => {
     const captures: string[] = [];
@@ -153,5 +153,5 @@ describe('quotas', () => {
     expect(cached.status).toBe(202);
     expect(cached.body.runs[0].fromCache).toBe(true);
     await sleep(10);
-  });
+  }, 180_000);
 });

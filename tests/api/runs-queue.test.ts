@@ -72,7 +72,7 @@ describe('concurrency and cancel', () => {
     expect(storedOutputs()).toEqual([]);
     // Cancelling again is a conflict, not a second cancel.
     expect((await engineer.post(`/api/runs/${first.id}/cancel`)).status).toBe(409);
-  });
+  }, 180_000);
 });
 
 describe('failure and retry', () => {
@@ -100,7 +100,7 @@ describe('failure and retry', () => {
     expect(second).toMatchObject({ attempt: 2, retryOf: submitted.id, status: 'failed' });
     // Someone else may not retry it, and a succeeded run cannot be retried.
     expect((await operator.post(`/api/runs/${submitted.id}/retry`)).status).toBe(403);
-  });
+  }, 180_000);
 });
 
 describe('result cache', () => {
@@ -141,7 +141,7 @@ describe('result cache', () => {
     const capture = await server.db('captures').where({ id: smallCapture }).first();
     expect(row.cache_key).toBe(cacheKey(computationHash(quickChain(200_000)), capture.sha256, ENGINE_VERSION));
     expect(row.cache_key).not.toBe(cacheKey(computationHash(quickChain(200_000)), capture.sha256, `${ENGINE_VERSION}-next`));
-  });
+  }, 180_000);
 
   it('misses a result stored under another engine version', async () => {
     const chain = await createChain(engineer, quickChain(120_000));
@@ -157,7 +157,7 @@ describe('result cache', () => {
     const run = await submitRun(engineer, chain, smallCapture);
     expect(run.fromCache).toBe(false);
     await waitForRun(engineer, run.id, finished);
-  });
+  }, 180_000);
 });
 
 describe('fairness', () => {
@@ -177,5 +177,5 @@ describe('fairness', () => {
     expect(rows.every((row) => row.status === 'succeeded')).toBe(true);
     // The first of the batch may already have started; the operator's run comes right after it at the latest.
     expect(order.indexOf(lone.id)).toBeLessThanOrEqual(1);
-  });
+  }, 180_000);
 });

@@ -48,5 +48,5 @@ describe('restart recovery', () => {
     const result = await second.db('run_results').where({ id: (await second.db('runs').where({ id: run.id }).first()).result_id }).first();
     expect(result.output_key).not.toBe(interruptedKey);
     expect(storedOutputs(second.dataDir)).toEqual([result.output_key.split('/')[1]]);
-  });
+  }, 240_000);
 });

@@ -66,7 +66,7 @@ describe('results', () => {
     // The output capture is byte for byte the command line's.
     const data = await download(engineer, `/api/runs/${run.id}/export?format=sigmf-data`);
     expect(data.bytes.equals(readFileSync(join(work, 'out', 'output.sigmf-data')))).toBe(true);
-  });
+  }, 180_000);
 
   it('export as JSON, CSV and a SigMF pair that parse back', async () => {
     const json = await download(engineer, `/api/runs/${run.id}/export?format=json`);
@@ -150,7 +150,7 @@ describe('results', () => {
     expect(power.differences[run.id]).toBe(0);
     expect((await engineer.get(`/api/runs/compare?ids=${run.id}`)).status).toBe(400);
     expect((await engineer.get(`/api/runs/compare?ids=${run.id},00000000-0000-4000-8000-000000000000`)).status).toBe(404);
-  });
+  }, 180_000);
 });
 
 describe('event stream', () => {
@@ -182,7 +182,7 @@ describe('event stream', () => {
     // A finished run's stream says done at once and closes.
     const again = await fetch(`${server.baseUrl}/api/runs/${submitted.id}/events`, { headers: { cookie: [...engineer.cookies].map(([k, v]) => `${k}=${v}`).join('; ') } });
     expect(await again.text()).toMatch(/event: done\ndata: \{"status":"succeeded"/);
-  });
+  }, 180_000);
 
   it('is refused to the signed-out and hidden from other users for a private run', async () => {
     const privateCapture = await uploadCapture(engineer, 'Private beacon', complexTone(8192, 4e6, 500_000, { seed: 21 }), 4e6, 'private');
@@ -190,5 +190,5 @@ describe('event stream', () => {
     expect((await fetch(`${server.baseUrl}/api/runs/${privateRun.id}/events`)).status).toBe(401);
     expect((await operator.get(`/api/runs/${privateRun.id}/events`)).status).toBe(404);
     await waitForRun(engineer, privateRun.id, finished);
-  });
+  }, 180_000);
 });
