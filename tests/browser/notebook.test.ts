@@ -15,7 +15,7 @@ const hasChromium = existsSync(chromiumPath);
 if (!hasChromium) console.warn(`Skipping the notebook browser test: ${chromiumPath} is absent (apt-get install -y chromium).`);
 
 // A loaded two-core machine: sign-in (argon2), the first Plotly load and the head fetch take seconds.
-describe.skipIf(!hasChromium)('chain notebook in a browser', { timeout: 180_000 }, () => {
+describe.skipIf(!hasChromium)('chain notebook in a browser', { timeout: 300_000 }, () => {
   let server: TestServer;
   let browser: Browser;
   let context: BrowserContext;
@@ -30,6 +30,8 @@ describe.skipIf(!hasChromium)('chain notebook in a browser', { timeout: 180_000 
     });
     context = await browser.newContext({ viewport: { width: 1440, height: 900 }, baseURL: server.baseUrl });
     page = await context.newPage();
+    // Other work on the machine can stall the page for many seconds while Plotly compiles.
+    page.setDefaultTimeout(90_000);
   }, 120_000);
 
   afterAll(async () => {
@@ -42,7 +44,7 @@ describe.skipIf(!hasChromium)('chain notebook in a browser', { timeout: 180_000 
   const status = () => page.getByTestId('preview-status');
 
   /** Polls `check` until it holds (the page updates asynchronously); fails naming `what`. */
-  async function until(what: string, check: () => Promise<boolean>, timeoutMs = 30_000): Promise<void> {
+  async function until(what: string, check: () => Promise<boolean>, timeoutMs = 90_000): Promise<void> {
     const deadline = Date.now() + timeoutMs;
     while (!(await check())) {
       if (Date.now() > deadline) throw new Error(`timed out waiting for ${what}`);
@@ -71,7 +73,7 @@ describe.skipIf(!hasChromium)('chain notebook in a browser', { timeout: 180_000 
         return el?.getAttribute('data-status') === 'done' && Number(el.getAttribute('data-results')) > n;
       },
       count,
-      { timeout: 60_000 },
+      { timeout: 120_000 },
     );
     return Date.now() - since;
   }

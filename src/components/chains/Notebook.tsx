@@ -68,6 +68,12 @@ export default function Notebook({ chainId, user }: NotebookProps) {
   }, [chainId]);
 
   useEffect(() => {
+    // Plotly is large: compile it while the page settles, not in the middle of someone's typing.
+    const idle = window.requestIdleCallback ?? ((f: () => void) => setTimeout(f, 500));
+    idle(() => void import('@/components/plots/plotly-component'));
+  }, []);
+
+  useEffect(() => {
     void loadChain();
     void requestJson<CaptureList>('GET', '/api/captures?pageSize=100&sort=name&order=asc').then((r) => {
       if (r.ok) setCaptures(r.data.items);
