@@ -172,6 +172,8 @@ export const pageActions: Record<string, Action | Audience> = {
   '/': 'signed-in',
   '/account': 'account.update',
   '/captures': 'capture.read',
+  '/captures/[id]': 'capture.read',
+  '/captures/synthesize': 'capture.create',
   '/chains': 'chain.read',
   '/chains/new': 'chain.create',
   '/chains/[id]': 'chain.read',
