@@ -1,13 +1,14 @@
 /**
  * The check every stored sample byte passes on its way to the object store: the byte count must
  * come to a whole number of samples, and float data must hold no NaN or infinity. Float data is
- * scanned on the way (SampleDecoder views aligned float32 chunks without copying, and its test is
- * one subtraction per value), because a capture with a NaN would fail every later run; a refusal
- * at upload names the sample. Integer data needs no scan: every code is a valid sample.
+ * scanned on the way (one byte test per value on the exponent, see finite-scan.ts), because a
+ * capture with a NaN would fail every later run; a refusal at upload names the sample. Integer
+ * data needs no scan: every code is a valid sample.
  */
-import { FormatError, SampleDecoder, type Datatype } from '@/dsp/formats';
+import { FormatError, type Datatype } from '@/dsp/formats';
 import type { SampleType } from '@/dsp/types';
 import { valuesPerSample } from '@/dsp/types';
+import { FiniteScanner } from './finite-scan';
 
 /** Bytes per sample (every channel) of a datatype in a layout. */
 export function bytesPerSampleOf(datatype: Datatype, layout: SampleType): number {
@@ -32,24 +33,13 @@ export async function* wholeSamples(
   layout: SampleType,
 ): AsyncGenerator<Uint8Array, void, undefined> {
   const bytesPerSample = bytesPerSampleOf(datatype, layout);
-  const decoder = datatype.kind === 'f' ? new SampleDecoder(datatype, layout, { zeroCopy: true, checkFinite: true }) : null;
+  const scanner = datatype.kind === 'f' ? new FiniteScanner(datatype, layout) : null;
   let total = 0;
   for await (const chunk of chunks) {
-    if (decoder) {
-      try {
-        decoder.decode(chunk);
-      } catch (error) {
-        throw asBodyError(error);
-      }
-    }
+    scanner?.scan(chunk);
     total += chunk.byteLength;
     yield chunk;
   }
   if (total === 0) throw new FormatError('body: the upload holds no sample bytes', 'body');
   if (total % bytesPerSample !== 0) throw partialSampleError(total, bytesPerSample, datatype, layout);
-}
-
-function asBodyError(error: unknown): unknown {
-  if (error instanceof FormatError) return new FormatError(error.message.replace(/^data: /, 'body: '), 'body');
-  return error;
 }
