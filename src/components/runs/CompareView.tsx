@@ -9,7 +9,7 @@ import { shortId } from './format';
 import { usePlotWidth } from './hooks';
 import { PlotCard, plotConfig } from './PlotCard';
 import { StatusBadge } from './StatusBadge';
-import type { ComparedSpectrum, Run, RunComparison } from './types';
+import { isActive, type ComparedSpectrum, type Run, type RunComparison } from './types';
 
 export interface CompareViewProps {
   /** Run ids in the order asked; the first is the baseline of the differences. */
@@ -36,6 +36,8 @@ function CompareBody({ ids }: CompareViewProps) {
     queryFn: () => fetchComparison(ids, width),
     enabled: width > 0,
     placeholderData: keepPreviousData,
+    // A compared run still queued or running joins the plot and the table when it finishes.
+    refetchInterval: (q) => (q.state.data?.runs.some((run) => isActive(run.status)) ? 3_000 : false),
   });
   const comparison = query.data;
   return (
@@ -132,7 +134,7 @@ function OverlayCard({ probe, spectra, runs, theme }: { probe: string; spectra: 
   return (
     <PlotCard
       title={`Spectra at ${probe}`}
-      note={`${spectra.length} runs overlaid · up to ${points.toLocaleString('en')} points each · frequency from each stream's centre`}
+      note={`${spectra.length} ${spectra.length === 1 ? 'run' : 'runs'} overlaid · up to ${points.toLocaleString('en')} points each · frequency from each stream's centre`}
       graph={graph}
       fileName={`compare-spectra-${probe}`}
       testId={`compare-spectra-${probe}`}

@@ -1,6 +1,7 @@
 import { Quantity } from '../Quantity';
 import { buttonSmall } from '../ui';
 import { markerDifference, type Marker, type MarkerName } from './markers';
+import type { FrequencyAxis } from './run-figures';
 
 export interface MarkerPanelProps {
   markers: Partial<Record<MarkerName, Marker>>;
@@ -8,8 +9,10 @@ export interface MarkerPanelProps {
   next: MarkerName;
   /** The spectrum's level unit (dBFS/Hz...). */
   unit: string;
-  /** Added to marker frequencies for display (Hz): the centre frequency when known. */
-  offset: number;
+  /** The plot's frequency axis: marker frequencies are shown in its unit (RF when the centre is known). */
+  axis: FrequencyAxis;
+  /** Spacing of the spectrum's bins (Hz), which decides the decimals worth showing. */
+  binSpacing: number;
   onNext: (name: MarkerName) => void;
   /** Move a marker by `step` bins. */
   onStep: (name: MarkerName, step: number) => void;
@@ -20,7 +23,7 @@ export interface MarkerPanelProps {
 const NAMES: MarkerName[] = ['A', 'B'];
 
 /** Readings of markers A and B and their difference, with buttons to choose, nudge and clear them. */
-export function MarkerPanel({ markers, next, unit, offset, onNext, onStep, onPeak, onClear }: MarkerPanelProps) {
+export function MarkerPanel({ markers, next, unit, axis, binSpacing, onNext, onStep, onPeak, onClear }: MarkerPanelProps) {
   const { A, B } = markers;
   const difference = A && B ? markerDifference(A, B) : null;
   // Differences of levels in a logarithmic unit are ratios: dB, whatever the level unit was.
@@ -76,7 +79,7 @@ export function MarkerPanel({ markers, next, unit, offset, onNext, onStep, onPea
                   {name}
                 </th>
                 <td className="py-0.5 pr-4 text-right" data-testid={`marker-${name}-frequency`}>
-                  {marker ? <Quantity value={marker.frequency + offset} unit="Hz" significant={offset ? 10 : 7} /> : <span className="text-muted">—</span>}
+                  {marker ? <AxisFrequency frequency={marker.frequency} axis={axis} binSpacing={binSpacing} /> : <span className="text-muted">—</span>}
                 </td>
                 <td className="py-0.5 pr-4 text-right" data-testid={`marker-${name}-level`}>
                   {marker && marker.level !== null ? <Quantity value={marker.level} unit={unit} /> : <span className="text-muted">—</span>}
@@ -138,5 +141,20 @@ export function MarkerPanel({ markers, next, unit, offset, onNext, onStep, onPea
         </tbody>
       </table>
     </div>
+  );
+}
+
+/**
+ * A marker frequency in the plot axis's unit with as many decimals as one bin resolves, so it reads
+ * like the axis ("2,410.9971 MHz") rather than as a long GHz figure; the exact value in Hz on hover.
+ */
+function AxisFrequency({ frequency, axis, binSpacing }: { frequency: number; axis: FrequencyAxis; binSpacing: number }) {
+  const value = (frequency + axis.offset) / axis.scale.divisor;
+  const decimals = binSpacing > 0 ? Math.max(0, Math.min(9, Math.ceil(Math.log10(axis.scale.divisor / binSpacing)))) : 3;
+  return (
+    <span className="whitespace-nowrap font-mono tabular-nums" title={`${frequency + axis.offset} Hz`} data-quantity={frequency + axis.offset}>
+      {value.toLocaleString('en', { minimumFractionDigits: decimals, maximumFractionDigits: decimals })}
+      <span className="text-muted"> {axis.scale.unit}</span>
+    </span>
   );
 }

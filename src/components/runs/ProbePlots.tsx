@@ -48,7 +48,10 @@ const TITLES: Record<OtherKind, (probe: ResultProbe) => string> = {
 function OtherPlotCard({ runId, probe, kind, fileBase }: { runId: string; probe: ResultProbe; kind: OtherKind; fileBase: string }) {
   const theme = usePlotTheme();
   const [box, width] = usePlotWidth<HTMLDivElement>();
-  const plot = usePlotData(runId, probe.stageId, kind, width);
+  // A scatter of points covers an area: its pixel budget is the plot's area, and eight points per
+  // column stays far below it, where one per column would thin a constellation out to a few hundred.
+  const points = kind === 'constellation' ? Math.min(10_000, width * 8) : width;
+  const plot = usePlotData(runId, probe.stageId, kind, points);
   const [graph, setGraph] = useState<HTMLElement | null>(null);
   const figure = useMemo(() => {
     const data = plot.data;

@@ -80,6 +80,11 @@ function RunDetailBody({ initialRun }: RunDetailProps) {
         </p>
       )}
       {run.status === 'succeeded' && !results && <p className="text-sm text-muted">Loading the results…</p>}
+      {isActive(run.status) && (
+        <p className="rounded-lg border border-dashed border-line bg-panel px-5 py-8 text-center text-sm text-muted">
+          The plots of each probe, the readouts and the exports appear here when the run has finished.
+        </p>
+      )}
       {results && (
         <div className="grid items-start gap-6 2xl:grid-cols-[minmax(0,1fr)_30rem]">
           <div className="min-w-0 space-y-6">
@@ -100,7 +105,7 @@ function RunDetailBody({ initialRun }: RunDetailProps) {
               </section>
             ))}
           </div>
-          <div className="space-y-6 2xl:sticky 2xl:top-20">
+          <div className="grid items-start gap-6 xl:grid-cols-[minmax(0,1fr)_24rem] 2xl:sticky 2xl:top-20 2xl:grid-cols-1">
             <section aria-labelledby="readouts-title" className="rounded-lg border border-line bg-panel p-4">
               <h2 id="readouts-title" className="mb-2 font-semibold">
                 Readouts

@@ -20,14 +20,9 @@ export function RunProgress({ status, progress, currentStage, etaSeconds, compac
   const fraction = status === 'succeeded' ? 1 : Math.min(1, Math.max(0, progress));
   const percent = Math.floor(fraction * 100);
   const tone = status === 'failed' ? 'bg-danger' : status === 'cancelled' ? 'bg-muted/60' : status === 'succeeded' ? 'bg-ok' : 'bg-accent';
-  const detail =
-    status === 'queued'
-      ? 'waiting for a worker'
-      : status === 'running'
-        ? [currentStage ? `stage ${currentStage}` : 'starting', etaSeconds !== null ? `about ${formatDuration(etaSeconds)} left` : null]
-            .filter(Boolean)
-            .join(' · ')
-        : null;
+  const stage = currentStage ? (compact ? currentStage : `stage ${currentStage}`) : 'starting';
+  const left = etaSeconds !== null ? (compact ? `${formatDuration(etaSeconds)} left` : `about ${formatDuration(etaSeconds)} left`) : null;
+  const detail = status === 'queued' ? 'waiting for a worker' : status === 'running' ? [stage, left].filter(Boolean).join(' · ') : null;
   return (
     <div className={compact ? 'w-36' : 'w-full'} data-testid="run-progress" data-progress={fraction.toFixed(3)}>
       <div className="flex items-center gap-2">
@@ -42,7 +37,7 @@ export function RunProgress({ status, progress, currentStage, etaSeconds, compac
         >
           <div className={'h-full rounded-full transition-[width] duration-500 ease-out ' + tone} style={{ width: `${fraction * 100}%` }} />
         </div>
-        <span className={'w-10 text-right font-mono tabular-nums ' + (compact ? 'text-xs text-muted' : 'text-sm')}>{percent} %</span>
+        <span className={'whitespace-nowrap text-right font-mono tabular-nums ' + (compact ? 'w-10 text-xs text-muted' : 'w-14 text-sm')}>{percent} %</span>
       </div>
       {detail && <p className={'mt-1 truncate text-muted ' + (compact ? 'text-[0.7rem]' : 'text-sm')}>{detail}</p>}
     </div>

@@ -81,7 +81,7 @@ export function SpectrumCard({ runId, probe, fileBase }: SpectrumCardProps) {
     <>
       RBW {formatQuantity(full.resolutionBandwidth, 'Hz')} · {full.segments} segments · peak{' '}
       {peak.level !== null
-        ? `${formatQuantity(peak.frequency + axis.offset, 'Hz', { significant: 9 })} at ${formatQuantity(peak.level, full.unit, { decimals: 1 })}`
+        ? `${formatQuantity(peak.frequency + axis.offset, 'Hz', { significant: 9, signed: axis.offset === 0 })} at ${formatQuantity(peak.level, full.unit, { decimals: 1 })}`
         : 'none'}
       {noiseFloor !== null && <> · noise floor {formatQuantity(noiseFloor, full.unit, { decimals: 1 })} (median)</>}
       {plot.data && (
@@ -121,7 +121,8 @@ export function SpectrumCard({ runId, probe, fileBase }: SpectrumCardProps) {
         markers={markers}
         next={next}
         unit={full.unit}
-        offset={axis.offset}
+        axis={axis}
+        binSpacing={full.frequencies.length > 1 ? full.frequencies[1]! - full.frequencies[0]! : 0}
         onNext={setNext}
         onStep={(name, step) => {
           const marker = markers[name];

@@ -57,7 +57,7 @@ export function runColumns(actions: RunRowActions): ColumnDef<Run, any>[] {
         const run = row.original;
         if (run.status === 'failed') {
           return (
-            <span className="block max-w-[16rem] truncate text-xs text-danger" title={run.error?.message}>
+            <span className="block max-w-[13rem] truncate text-xs text-danger" title={run.error?.message}>
               {run.error?.stageId ? `at ${run.error.stageId}: ` : ''}
               {run.error?.message ?? 'failed'}
             </span>
@@ -70,7 +70,7 @@ export function runColumns(actions: RunRowActions): ColumnDef<Run, any>[] {
       id: 'chain',
       header: 'Chain',
       cell: ({ row }) => (
-        <div className="max-w-[18rem] whitespace-normal">
+        <div className="whitespace-nowrap">
           <a href={`/runs/${row.original.id}`} className="font-medium text-ink hover:text-accent hover:underline">
             {row.original.chain.name}
           </a>{' '}
@@ -86,7 +86,7 @@ export function runColumns(actions: RunRowActions): ColumnDef<Run, any>[] {
       cell: ({ row }) => (
         <a
           href={`/captures/${row.original.capture.id}`}
-          className="block max-w-[20rem] truncate text-ink hover:text-accent hover:underline"
+          className="block max-w-[16rem] truncate text-ink hover:text-accent hover:underline"
           title={row.original.capture.name}
         >
           {row.original.capture.name}

@@ -9,6 +9,7 @@ import type { PlotTheme } from '../plots/plot-theme';
 import type { Marker, MarkerName } from './markers';
 import type { ConstellationPlotData, SpectrogramPlotData, SpectrumPlotData, TracePlotData } from './types';
 import type { StreamFormat } from '@/dsp/types';
+import { formatQuantity } from '@/lib/units';
 
 export interface Figure {
   data: Data[];
@@ -22,12 +23,29 @@ export interface FrequencyAxis {
   title: string;
 }
 
-/** Frequency axis spanning `low`..`high` (Hz from the stream's 0 Hz) for a stream of `format`. */
+// Above this ratio of centre frequency to span, RF ticks would need eight or more digits
+// (2,412,350 kHz); the axis then shows offsets from the centre and names the centre in its title.
+const RF_TICKS_MAX_RATIO = 1000;
+
+/**
+ * Frequency axis spanning `low`..`high` (Hz from the stream's 0 Hz) for a stream of `format`: RF
+ * when the stream knows its centre and RF ticks stay short, else offsets from the centre.
+ */
 export function frequencyAxis(format: StreamFormat, low: number, high: number): FrequencyAxis {
-  const offset = format.centerFrequency ?? 0;
-  const scale = axisScale(low + offset, high + offset, 'Hz');
-  const label = format.centerFrequency !== undefined ? 'Frequency' : format.sampleType === 'complex' ? 'Frequency offset' : 'Frequency';
-  return { offset, scale, title: axisTitle(label, scale) };
+  const centre = format.centerFrequency;
+  const span = Math.abs(high - low) || 1;
+  if (centre !== undefined && Math.abs(centre) / span <= RF_TICKS_MAX_RATIO) {
+    const scale = axisScale(low + centre, high + centre, 'Hz');
+    return { offset: centre, scale, title: axisTitle('Frequency', scale) };
+  }
+  const scale = axisScale(low, high, 'Hz');
+  const label =
+    centre !== undefined
+      ? `Offset from ${formatQuantity(centre, 'Hz', { significant: 9 })}`
+      : format.sampleType === 'complex'
+        ? 'Frequency offset'
+        : 'Frequency';
+  return { offset: 0, scale, title: axisTitle(label, scale) };
 }
 
 /** Plot x of a stream frequency (Hz). */
@@ -91,7 +109,8 @@ export function spectrumFigure({ data, axis, noiseFloor, markers, theme }: Spect
       x: [toAxis(axis, data.peak.frequency)],
       y: [data.peak.level],
       text: ['peak'],
-      textposition: 'top center',
+      // Left of the peak, so a marker put on the peak (its label on the right) stays readable.
+      textposition: 'top left',
       textfont: { size: 11, color: theme.series[1] },
       marker: { symbol: 'triangle-down', size: 10, color: theme.series[1] },
       hoverinfo: 'skip',
@@ -139,7 +158,7 @@ export function spectrumFigure({ data, axis, noiseFloor, markers, theme }: Spect
       hovermode: 'x',
       uirevision: 'spectrum',
       margin: { l: 60, r: 16, t: 16, b: 44 },
-      xaxis: { title: { text: axis.title }, zeroline: false },
+      xaxis: { title: { text: axis.title }, zeroline: false, exponentformat: 'none' },
       yaxis: { title: { text: `Level (${unit})` }, zeroline: false },
       shapes: shapes as Layout['shapes'],
     },
@@ -179,7 +198,7 @@ export function spectrogramFigure(data: SpectrogramPlotData, axis: FrequencyAxis
     ],
     layout: {
       uirevision: 'spectrogram',
-      xaxis: { title: { text: axis.title }, showgrid: false, zeroline: false },
+      xaxis: { title: { text: axis.title }, showgrid: false, zeroline: false, exponentformat: 'none' },
       yaxis: { title: { text: axisTitle('Time', timeScale) }, showgrid: false, zeroline: false },
     },
   };
@@ -202,7 +221,8 @@ export function traceFigure(data: TracePlotData, theme: PlotTheme): Figure {
   const traces: Data[] = [];
   data.channels.forEach((channel, index) => {
     const colour = theme.series[index % theme.series.length]!;
-    const fill = colour.replace(/, 1\)$/, ', 0.35)');
+    // Light fills, so where the I and Q bands overlap both stay visible.
+    const fill = colour.replace(/, 1\)$/, ', 0.2)');
     const name = names[index] ?? `Channel ${index}`;
     const hover = `${name}: %{y:.4f} FS at %{x:.5~f} ${timeScale.unit}<extra></extra>`;
     if (data.samplesPerColumn <= 1) {
