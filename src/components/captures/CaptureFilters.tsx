@@ -47,9 +47,9 @@ export function CaptureFilters({ values, onChange }: { values: FilterValues; onC
       <label className="block text-xs font-medium text-muted">
         Owner
         <select className={small + ' mt-1'} value={values.owner} onChange={set('owner')}>
-          <option value="">Everyone's I can see</option>
+          <option value="">Anyone</option>
           <option value="me">Mine</option>
-          <option value="team">Shared with the team</option>
+          <option value="team">Team-visible</option>
         </select>
       </label>
       <label className="block text-xs font-medium text-muted">
@@ -80,7 +80,7 @@ export function CaptureFilters({ values, onChange }: { values: FilterValues; onC
       </label>
       <RateField id={`${id}-min`} label="Rate from" value={values.minRate} error={minRate.error} onChange={set('minRate')} />
       <RateField id={`${id}-max`} label="Rate to" value={values.maxRate} error={maxRate.error} onChange={set('maxRate')} />
-      <div className="flex items-end">
+      <div className="flex items-start pt-5">
         <button type="button" className={buttonSmall + ' h-[2.125rem] px-3'} disabled={!active} onClick={() => onChange(emptyFilters)}>
           Clear filters
         </button>

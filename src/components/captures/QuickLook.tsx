@@ -1,4 +1,4 @@
-import { useMemo } from 'react';
+import { useMemo, useState } from 'react';
 import Plot, { PlotPlaceholder } from '../plots/Plot';
 import { usePlotTheme } from '../plots/plot-theme';
 import { Quantity } from '../Quantity';
@@ -14,7 +14,10 @@ export interface QuickLookProps {
   capture: Pick<Capture, 'id' | 'datatype' | 'layout' | 'sampleRate' | 'sampleCount' | 'bytesPerSample' | 'centerFrequency' | 'annotations' | 'durationSeconds'>;
 }
 
-const PLOT_HEIGHT = 300;
+/** Plot height (CSS px): taller on wide screens, where the plots are also wider. */
+function plotHeight(): number {
+  return typeof window !== 'undefined' && window.innerWidth >= 1920 ? 380 : 300;
+}
 
 /**
  * Quick look of a capture, computed in the browser by the engine on the head of the capture:
@@ -23,6 +26,7 @@ const PLOT_HEIGHT = 300;
  */
 export default function QuickLook({ capture }: QuickLookProps) {
   const state = useQuickLook(capture);
+  const [plotPx] = useState(plotHeight);
   const theme = usePlotTheme();
   const annotations = useMemo(() => readAnnotations(capture.annotations), [capture.annotations]);
   const result = state.phase === 'done' ? state.result : null;
@@ -69,24 +73,24 @@ export default function QuickLook({ capture }: QuickLookProps) {
         <div className="min-w-0 space-y-4">
           <PlotCard title="Spectrum" note={result ? spectrumNote(result) : undefined}>
             {figures ? (
-              <Plot label="Spectrum of the capture head" testId="spectrum-plot" height={PLOT_HEIGHT} {...figures.spectrum} />
+              <Plot label="Spectrum of the capture head" testId="spectrum-plot" height={plotPx} {...figures.spectrum} />
             ) : (
-              <PlotPlaceholder height={PLOT_HEIGHT} text={state.phase === 'failed' ? 'No spectrum.' : pending} />
+              <PlotPlaceholder height={plotPx} text={state.phase === 'failed' ? 'No spectrum.' : pending} />
             )}
           </PlotCard>
           <div className="grid gap-4 xl:grid-cols-2">
             <PlotCard title="Spectrogram" note={result ? `${result.spectrogramFftSize}-point FFT, ${result.spectrogram.levels.length} rows, Hann window` : undefined}>
               {figures ? (
-                <Plot label="Spectrogram of the capture head" testId="spectrogram-plot" height={PLOT_HEIGHT} {...figures.spectrogram} />
+                <Plot label="Spectrogram of the capture head" testId="spectrogram-plot" height={plotPx} {...figures.spectrogram} />
               ) : (
-                <PlotPlaceholder height={PLOT_HEIGHT} text={state.phase === 'failed' ? 'No spectrogram.' : pending} />
+                <PlotPlaceholder height={plotPx} text={state.phase === 'failed' ? 'No spectrogram.' : pending} />
               )}
             </PlotCard>
             <PlotCard title={capture.layout === 'real' ? 'Signal against time' : 'I and Q against time'} note={result ? traceNote(result.trace.samplesPerColumn) : undefined}>
               {figures ? (
-                <Plot label="I and Q against time" testId="trace-plot" height={PLOT_HEIGHT} {...figures.trace} />
+                <Plot label="I and Q against time" testId="trace-plot" height={plotPx} {...figures.trace} />
               ) : (
-                <PlotPlaceholder height={PLOT_HEIGHT} text={state.phase === 'failed' ? 'No trace.' : pending} />
+                <PlotPlaceholder height={plotPx} text={state.phase === 'failed' ? 'No trace.' : pending} />
               )}
             </PlotCard>
           </div>

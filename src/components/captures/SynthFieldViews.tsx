@@ -34,7 +34,7 @@ export function FieldView({ field, name }: { field: FieldModel; name: string }) 
       return <LeafField field={field} name={name} />;
     case 'group':
       return (
-        <div className="grid gap-3 sm:grid-cols-2 xl:grid-cols-3">
+        <div className="grid gap-3 sm:grid-cols-2 xl:grid-cols-3 min-[1920px]:grid-cols-4">
           {field.fields.map((f) => (
             <FieldView key={f.key} field={f} name={`${name}.${f.key}`} />
           ))}
@@ -70,7 +70,7 @@ function LeafField({ field, name }: { field: Extract<FieldModel, { kind: 'number
     <div className="min-w-0">
       <label htmlFor={id} className="mb-1 block text-sm font-medium">
         {field.label}
-        {unit && <span className="ml-1 font-normal text-muted">({unit})</span>}
+        {unit && <span className="font-normal text-muted"> ({unit})</span>}
       </label>
       {field.kind === 'choice' ? (
         <select id={id} className={control + (field.key === 'datatype' ? ' font-mono' : '')} aria-invalid={error ? true : undefined} aria-describedby={describedBy} {...register(name)} disabled={field.options.length < 2}>
@@ -147,7 +147,7 @@ function VariantField({ field, name }: { field: Extract<FieldModel, { kind: 'var
   const tagInfo = { label: field.discriminator === 'mode' ? field.label : 'Modulation' };
   const registration = register(tagName);
   return (
-    <div className="grid gap-3 sm:grid-cols-2 xl:grid-cols-3">
+    <div className="grid gap-3 sm:grid-cols-2 xl:grid-cols-3 min-[1920px]:grid-cols-4">
       <div>
         <label htmlFor={id} className="mb-1 block text-sm font-medium">
           {tagInfo.label}

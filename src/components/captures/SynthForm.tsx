@@ -28,6 +28,7 @@ export default function SynthForm() {
   const [tags, setTags] = useState('synthesized');
   const [notes, setNotes] = useState('');
   const [message, setMessage] = useState<React.ReactNode>(null);
+  const [duplicate, setDuplicate] = useState(false);
   const [busy, setBusy] = useState(false);
   const [ready, setReady] = useState(false);
   useEffect(() => setReady(true), []);
@@ -68,6 +69,7 @@ export default function SynthForm() {
 
   async function submit(spec: SynthSpec) {
     setMessage(null);
+    setDuplicate(false);
     setBusy(true);
     const outcome = await postSynth({
       name: spec.name?.trim() || 'Synthesized capture',
@@ -82,6 +84,7 @@ export default function SynthForm() {
     }
     setBusy(false);
     if (outcome.kind === 'duplicate') {
+      setDuplicate(true);
       setMessage(
         <span data-testid="synth-duplicate">
           Identical capture already stored (the same spec and seed give the same bytes):{' '}
@@ -121,7 +124,7 @@ export default function SynthForm() {
                 </select>
               </label>
             </div>
-            <div className="grid gap-3 sm:grid-cols-2 xl:grid-cols-3">
+            <div className="grid gap-3 sm:grid-cols-2 xl:grid-cols-3 min-[1920px]:grid-cols-4">
               {simple.map((f) => (
                 <FieldView key={f.key} field={f} name={f.key} />
               ))}
@@ -169,7 +172,7 @@ export default function SynthForm() {
             <Summary summary={summary} />
             {message && (
               <div className="mt-4">
-                <p role="alert" className="rounded-md border border-danger/40 bg-danger/10 px-3 py-2 text-sm text-danger">
+                <p role="alert" className={'rounded-md border px-3 py-2 text-sm ' + (duplicate ? 'border-accent/40 bg-accent/10 text-ink' : 'border-danger/40 bg-danger/10 text-danger')}>
                   {message}
                 </p>
               </div>

@@ -170,7 +170,7 @@ export default function UploadPanel() {
 
         {fromFile ? (
           <div className="col-span-2 @3xl:col-span-4">
-            <FileFacts picked={picked!} />
+            <FileFacts picked={picked!} layout={values.layout} />
           </div>
         ) : (
           <>
@@ -287,11 +287,11 @@ function FilePicker({ inputRef, picked, error, disabled, onPick }: { inputRef: R
   );
 }
 
-function FileFacts({ picked }: { picked: PickedUpload }) {
+function FileFacts({ picked, layout }: { picked: PickedUpload; layout: UploadValues['layout'] }) {
   const s = picked.stated;
   const facts: [string, string][] = [
     ['Datatype', s.datatype ?? 'set by the server'],
-    ['Layout', s.layout ? LAYOUT_LABELS[s.layout] : '—'],
+    ['Layout', LAYOUT_LABELS[layout]],
     ['Sample rate', s.sampleRate !== undefined ? formatQuantity(s.sampleRate, 'sps', { significant: 8 }) : 'missing'],
   ];
   if (picked.kind === 'sigmf') facts.push(['Centre frequency', s.centerFrequency != null ? formatQuantity(s.centerFrequency, 'Hz', { significant: 10 }) : 'not given']);

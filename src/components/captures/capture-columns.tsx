@@ -76,7 +76,7 @@ export function captureColumns(actions: RowActions): ColumnDef<Capture, any>[] {
       header: 'Tags',
       enableSorting: false,
       cell: ({ getValue }) => (
-        <div className="flex max-w-[18rem] flex-wrap gap-1 whitespace-normal">
+        <div className="flex min-w-[11rem] max-w-[18rem] flex-wrap gap-1 whitespace-normal">
           {(getValue() as string[]).map((tag) => (
             <button
               key={tag}

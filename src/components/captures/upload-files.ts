@@ -43,7 +43,8 @@ export interface PickedUpload {
 export class PickError extends Error {}
 
 function stem(name: string): string {
-  return name.replace(/\.(sigmf-meta|sigmf-data|sigmf|wav|wave|raw|bin|dat|iq|cf32|cs16|cu8|c64|f32|s16)$/i, '') || name;
+  const sigmf = /\.sigmf-(meta|data)$/i;
+  return (sigmf.test(name) ? name.replace(sigmf, '') : name.replace(/\.[^.]{1,12}$/, '')) || name;
 }
 
 /** Reads the picked files into one upload, or throws PickError saying what is missing or wrong. */
