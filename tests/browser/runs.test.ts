@@ -98,7 +98,7 @@ describe.skipIf(!hasChromium)('runs in a browser', { timeout: 180_000 }, () => {
   it('shows both runs finish on the runs list', async () => {
     const rows = page.locator('tr[data-run-id]');
     await expect.poll(() => rows.count()).toBe(2);
-    await expect.poll(() => page.locator('tr[data-run-id][data-status="succeeded"]').count(), { timeout: 120_000, intervals: [500] }).toBe(2);
+    await expect.poll(() => page.locator('tr[data-run-id][data-status="succeeded"]').count(), { timeout: 120_000, interval: 500 }).toBe(2);
     runIds = await rows.evaluateAll((trs) => trs.map((tr) => tr.getAttribute('data-run-id')!));
     const text = await page.getByTestId('runs-table').textContent();
     expect(text).toContain(chainName);
@@ -180,5 +180,22 @@ describe.skipIf(!hasChromium)('runs in a browser', { timeout: 180_000 }, () => {
     expect(await table.locator('[data-large-difference]').count()).toBeGreaterThan(0);
     expect(new Set(runIds).size).toBe(2);
     await shoot('compare');
+  });
+
+  it('runs a chosen chain from a capture page and follows it to its result', async () => {
+    const capture = await server.db('captures').where('name', 'like', 'Saltmarsh rev B%').first('id');
+    await page.goto(`/captures/${capture.id}`);
+    await page.getByTestId('run-chain').click();
+    const dialog = page.getByRole('dialog');
+    await dialog.getByRole('radio', { name: /Beacon down-conversion/ }).check();
+    // The revision list fills in and the revision is checked against the capture before the button allows a run.
+    await expect.poll(() => dialog.getByTestId('run-dialog-submit').isEnabled()).toBe(true);
+    await shoot('dialog-run-chain');
+    await dialog.getByTestId('run-dialog-submit').click();
+    await page.waitForURL(/\/runs\/[^/]+$/);
+    // The page follows the run live until it succeeds, then shows the baseband spectrum.
+    await page.locator('[data-testid="run-status"][data-status="succeeded"]').waitFor({ timeout: 120_000 });
+    await page.locator('[data-testid="spectrum-plot-baseband-spectrum"][data-plot-ready]').waitFor({ timeout: 60_000 });
+    expect(await page.getByTestId('readouts-table').textContent()).toContain('Occupied bandwidth (99 %)');
   });
 });
