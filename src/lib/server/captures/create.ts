@@ -26,7 +26,7 @@ import { findCapture, type CaptureRow, type CaptureSource, type CaptureWithOwner
 import { captureObjectKey } from './store';
 
 /** Bytes read ahead of the object store (bytes). */
-const READ_AHEAD_BYTES = 8 * 1024 * 1024;
+const READ_AHEAD_BYTES = 4 * 1024 * 1024;
 
 /** Everything the command needs to take in one capture. */
 export interface CaptureIntake {
@@ -67,7 +67,7 @@ export async function createCapture(db: Knex, store: ObjectStore, intake: Captur
     }
     const id = randomUUID();
     const key = captureObjectKey(id);
-    // An 8 MiB buffer between the body and the store lets the next bytes arrive while the store
+    // A 4 MiB buffer between the body and the store lets the next bytes arrive while the store
     // is busy writing (or uploading a part), instead of the two taking turns chunk by chunk.
     const samples = Readable.from(wholeSamples(opened.data, description.datatype, description.layout), {
       objectMode: false,
