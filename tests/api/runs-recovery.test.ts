@@ -12,9 +12,14 @@ let first: RunsServer | undefined;
 let second: RunsServer | undefined;
 
 afterAll(async () => {
-  await first?.stop(true);
-  await first?.db.destroy();
-  await second?.stop();
+  // Both servers share one data folder: the last one to stop removes it.
+  if (second) {
+    await first?.stop(true);
+    await first?.db.destroy();
+    await second.stop();
+  } else {
+    await first?.stop();
+  }
 });
 
 function storedOutputs(dataDir: string): string[] {

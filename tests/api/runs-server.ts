@@ -57,17 +57,20 @@ export async function startRunsServer(options: { dataDir?: string; env?: Record<
   child.stderr?.on('data', (chunk) => (output += chunk));
   const baseUrl = `http://127.0.0.1:${port}`;
   const deadline = Date.now() + 30_000;
+  const giveUp = async (message: string): Promise<never> => {
+    child.kill('SIGKILL');
+    await db.destroy();
+    if (!options.dataDir) rmSync(dataDir, { recursive: true, force: true });
+    throw new Error(`${message}\n${output}`);
+  };
   for (;;) {
-    if (child.exitCode !== null) throw new Error(`server exited with code ${child.exitCode}\n${output}`);
+    if (child.exitCode !== null) await giveUp(`server exited with code ${child.exitCode}`);
     try {
       if ((await fetch(`${baseUrl}/api/health`)).ok) break;
     } catch {
       // Not listening yet.
     }
-    if (Date.now() > deadline) {
-      child.kill('SIGKILL');
-      throw new Error(`server did not answer within 30 s\n${output}`);
-    }
+    if (Date.now() > deadline) await giveUp('server did not answer within 30 s');
     await sleep(100);
   }
   // The server migrates a fresh folder before answering its first request; the demo accounts follow.
