@@ -86,7 +86,7 @@ export function runColumns(actions: RunRowActions): ColumnDef<Run, any>[] {
       cell: ({ row }) => (
         <a
           href={`/captures/${row.original.capture.id}`}
-          className="block max-w-[16rem] truncate text-ink hover:text-accent hover:underline"
+          className="block max-w-[16rem] truncate text-ink 2xl:max-w-[32rem] hover:text-accent hover:underline"
           title={row.original.capture.name}
         >
           {row.original.capture.name}
