@@ -41,7 +41,7 @@ export default function CaptureMetadataForm({ capture }: CaptureMetadataFormProp
   const dirty = JSON.stringify(values) !== JSON.stringify(saved);
   const centre = values.centerFrequency.trim() ? parseQuantity(values.centerFrequency, 'Hz') : null;
 
-  async function submit(event: React.FormEvent) {
+  async function submit(event: React.SyntheticEvent<HTMLFormElement>) {
     event.preventDefault();
     setMessage(null);
     const found: Partial<Record<FieldName, string>> = {};

@@ -44,7 +44,14 @@ export default function QuickLook({ capture }: QuickLookProps) {
   const pending = state.phase === 'reading' ? 'Reading the head of the capture…' : 'Analysing in the background…';
 
   return (
-    <section aria-labelledby="quicklook-title" className="space-y-4" data-testid="quick-look" data-phase={state.phase}>
+    <section
+      aria-labelledby="quicklook-title"
+      className="space-y-4"
+      data-testid="quick-look"
+      data-phase={state.phase}
+      data-read-ms={state.phase === 'done' ? Math.round(state.readMs) : undefined}
+      data-analysis-ms={result ? Math.round(result.elapsedMs) : undefined}
+    >
       <div className="flex flex-wrap items-baseline justify-between gap-x-6 gap-y-1">
         <h2 id="quicklook-title" className="text-lg font-semibold">
           Quick look

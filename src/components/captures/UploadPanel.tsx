@@ -66,7 +66,7 @@ export default function UploadPanel() {
     setStage({ kind: 'editing' });
   }
 
-  async function submit(event: React.FormEvent) {
+  async function submit(event: React.SyntheticEvent<HTMLFormElement>) {
     event.preventDefault();
     setMessage(null);
     const { description, errors: found } = checkUpload(values, picked);
