@@ -113,7 +113,8 @@ describe.skipIf(!hasChromium)('runs in a browser', { timeout: 180_000 }, () => {
   });
 
   it('opens the rev A run and shows its spectrum, markers and readouts', async () => {
-    await page.locator('tr[data-run-id]', { hasText: revA }).getByRole('link', { name: 'Open', exact: true }).click();
+    // The chain name in a row opens that run.
+    await page.locator('tr[data-run-id]', { hasText: revA }).getByRole('link', { name: chainName }).click();
     await page.waitForURL(/\/runs\/[^/]+$/);
     const plot = page.locator('[data-testid="spectrum-plot-band-spectrum"][data-plot-ready]');
     await plot.waitFor({ timeout: 60_000 });

@@ -71,7 +71,7 @@ export function runColumns(actions: RunRowActions): ColumnDef<Run, any>[] {
       header: 'Chain',
       cell: ({ row }) => (
         <div className="whitespace-nowrap">
-          <a href={`/runs/${row.original.id}`} className="font-medium text-ink hover:text-accent hover:underline">
+          <a href={`/runs/${row.original.id}`} className="font-medium text-ink hover:text-accent hover:underline" title="Open this run">
             {row.original.chain.name}
           </a>{' '}
           <span className="font-mono text-xs text-muted" title={`Revision ${row.original.chain.revision} of the chain`}>
@@ -86,7 +86,7 @@ export function runColumns(actions: RunRowActions): ColumnDef<Run, any>[] {
       cell: ({ row }) => (
         <a
           href={`/captures/${row.original.capture.id}`}
-          className="block max-w-[16rem] truncate text-ink 2xl:max-w-[32rem] hover:text-accent hover:underline"
+          className="block max-w-[15rem] truncate text-ink 2xl:max-w-[32rem] hover:text-accent hover:underline"
           title={row.original.capture.name}
         >
           {row.original.capture.name}
@@ -124,9 +124,6 @@ export function runColumns(actions: RunRowActions): ColumnDef<Run, any>[] {
         const busy = actions.busyId === run.id;
         return (
           <div className="flex justify-end gap-1.5">
-            <a href={`/runs/${run.id}`} className={buttonSmall}>
-              Open
-            </a>
             {run.permissions.cancel && isActive(run.status) && (
               <button type="button" className={buttonSmall} disabled={busy} onClick={() => actions.onCancel(run)}>
                 Cancel
