@@ -133,6 +133,34 @@ describe.skipIf(!hasChromium)('captures in a browser', { timeout: 120_000 }, () 
     expect(stored.center_frequency).toBe(2.412e9);
   });
 
+  it('synthesizes a capture from the form, refusing a tone beyond Nyquist beside its field', async () => {
+    const page = await pageAs('engineer@saltmarsh.test');
+    await page.goto('/captures/synthesize');
+    await hydrated(page);
+    const form = page.getByTestId('synth-form');
+    await form.getByLabel('Name').first().fill('Bench tone, synthesized');
+    await form.getByLabel('Sample rate (Hz)').fill('2M');
+    await form.getByLabel('Frequency (Hz)', { exact: true }).fill('1.5 MHz');
+    await form.getByRole('button', { name: 'Synthesize and store' }).click();
+    // A complex capture at 2 Msps holds -1 MHz to +1 MHz (Nyquist): the engine's own check names the tone.
+    expect(await form.locator('[data-field-error="tones.0.frequency"]').textContent()).toMatch(/outside -fs\/2 to fs\/2/);
+    await form.getByLabel('Frequency (Hz)', { exact: true }).fill('250k');
+    await form.getByRole('button', { name: 'Synthesize and store' }).click();
+    await page.waitForURL((url) => /^\/captures\/[^/]+$/.test(url.pathname) && !url.pathname.endsWith('/synthesize'), { timeout: 60_000 });
+    expect(await page.getByRole('heading', { level: 1 }).textContent()).toBe('Bench tone, synthesized');
+    expect(await page.getByTestId('capture-facts').textContent()).toContain('2 Msps');
+    await page.locator('[data-testid="spectrum-plot"][data-plot-ready]').waitFor({ timeout: 90_000 });
+
+    // The owner edits the description in place.
+    await page.locator('form[data-ready][data-testid="metadata-form"]').waitFor();
+    await page.getByLabel('Notes').fill('Reference tone for the bench.');
+    await page.getByRole('button', { name: 'Save changes' }).click();
+    await page.getByText('Saved.').waitFor();
+    const stored = await server.db('captures').where({ name: 'Bench tone, synthesized' }).first();
+    expect(stored.notes).toBe('Reference tone for the bench.');
+    expect(stored.source).toBe('synthesized');
+  });
+
   it("shows an operator another user's capture read-only", async () => {
     const page = await pageAs('operator@saltmarsh.test');
     await page.goto('/captures');
