@@ -50,6 +50,8 @@ export default function StageForm({ stageId, definition, params, input, issues, 
   const form = useForm<FormValues, unknown, Record<string, unknown>>({ defaultValues: paramsToFormValues(fields, params), resolver, mode: 'onChange' });
   const { register, reset, control, formState, trigger } = form;
   const values = useWatch({ control });
+  // The help of the last focused field stays after the focus leaves: removing it on blur would shift
+  // everything below, and a click on a button there (mouse down, layout moves, mouse up) would miss.
   const [focused, setFocused] = useState<string | null>(null);
   const formId = useId();
 
@@ -94,9 +96,6 @@ export default function StageForm({ stageId, definition, params, input, issues, 
 
   return (
     <form id={formId} className="min-w-0" onSubmit={(e) => e.preventDefault()}
-      onBlur={(e) => {
-        if (!e.currentTarget.contains(e.relatedTarget as Node | null)) setFocused(null);
-      }}
       aria-label={`Parameters of ${stageId}`} data-stage-form={stageId}>
       <fieldset disabled={readOnly} className="grid grid-cols-[repeat(auto-fill,minmax(10.5rem,1fr))] gap-x-3 gap-y-2">
         {variant && (
