@@ -12,7 +12,7 @@ export default function NewChainForm() {
   const [error, setError] = useState<{ field?: string | null; message: string } | null>(null);
   const [busy, setBusy] = useState(false);
 
-  const submit = async (event: React.FormEvent) => {
+  const submit = async (event: React.SyntheticEvent<HTMLFormElement>) => {
     event.preventDefault();
     if (!name.trim()) return setError({ field: 'name', message: 'Name: enter a name for the chain.' });
     setBusy(true);

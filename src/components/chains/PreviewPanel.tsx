@@ -71,7 +71,8 @@ function PreviewStatus({ preview, blocked }: { preview: PreviewState; blocked?: 
     text = preview.error?.message ?? 'The preview failed.';
     tone = 'text-danger';
   } else if (preview.status === 'done') {
-    const parts = [`Updated ${Math.round(preview.editToResultMs ?? 0)} ms after the edit`, `run ${Math.round(preview.runMs ?? 0)} ms`];
+    const first = preview.afterEdit ? `Updated ${Math.round(preview.editToResultMs ?? 0)} ms after the edit` : `Ready in ${Math.round(preview.editToResultMs ?? 0)} ms`;
+    const parts = [first, `run ${Math.round(preview.runMs ?? 0)} ms`];
     if ((preview.fetchMs ?? 0) > 5) parts.push(`fetch ${Math.round(preview.fetchMs!)} ms`);
     text = parts.join(' · ');
   } else {

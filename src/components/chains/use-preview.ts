@@ -18,6 +18,8 @@ export interface PreviewState {
   sampleRate?: number;
   /** From the edit to the result on screen (ms): debounce, fetch (first time only) and run. */
   editToResultMs?: number;
+  /** Whether the result answers an edit (false for the first preview after opening or a capture change). */
+  afterEdit?: boolean;
   runMs?: number;
   fetchMs?: number;
   error?: { message: string; stageId?: string };
@@ -32,7 +34,8 @@ export function usePreview(document: ChainDocument | null, capture: PreviewCaptu
   const [state, setState] = useState<PreviewState>({ status: 'idle', probes: new Map(), stale: false, results: 0 });
   const worker = useRef<Worker | null>(null);
   const runId = useRef(0);
-  const editTimes = useRef(new Map<number, number>());
+  const lastRunAt = useRef(0);
+  const editTimes = useRef(new Map<number, { time: number; afterEdit: boolean }>());
   const documentJson = document ? JSON.stringify(document) : null;
 
   useEffect(() => {
@@ -53,7 +56,8 @@ export function usePreview(document: ChainDocument | null, capture: PreviewCaptu
         probes: new Map(reply.probes.map((p) => [p.stageId, p])),
         samples: reply.samplesIn,
         sampleRate: reply.sampleRate,
-        editToResultMs: editTime !== undefined ? performance.now() - editTime : undefined,
+        editToResultMs: editTime !== undefined ? performance.now() - editTime.time : undefined,
+        afterEdit: editTime?.afterEdit,
         runMs: reply.runMs,
         fetchMs: reply.fetchMs,
         stale: false,
@@ -74,7 +78,10 @@ export function usePreview(document: ChainDocument | null, capture: PreviewCaptu
     setState((old) => ({ ...old, status: 'waiting', stale: old.probes.size > 0 }));
     const timer = setTimeout(() => {
       const id = ++runId.current;
-      editTimes.current.set(id, editedAt || performance.now());
+      // The first run after opening has no edit to time from: it counts from when it was sent.
+      const afterEdit = editedAt > lastRunAt.current;
+      lastRunAt.current = performance.now();
+      editTimes.current.set(id, { time: afterEdit ? editedAt : performance.now(), afterEdit });
       setState((old) => ({ ...old, status: 'running' }));
       worker.current?.postMessage({ type: 'run', runId: id, document: JSON.parse(documentJson), capture });
     }, PREVIEW_DEBOUNCE_MS);
