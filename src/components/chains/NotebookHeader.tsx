@@ -82,6 +82,11 @@ export default function NotebookHeader(props: NotebookHeaderProps) {
               )}
             </h1>
           )}
+          {chain.description && (
+            <p className="mt-0.5 max-w-3xl truncate text-sm text-muted" title={chain.description}>
+              {chain.description}
+            </p>
+          )}
           <div className="mt-1 flex flex-wrap items-center gap-2 text-xs">
             <span className="font-mono">{viewing !== null ? `r${viewing} of ${chain.latestRevision}` : `r${chain.latestRevision}`}</span>
             {viewing !== null ? (
