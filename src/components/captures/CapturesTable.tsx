@@ -169,7 +169,8 @@ function CapturesTableBody({ initialList }: CapturesTableProps) {
         </p>
       )}
 
-      <div className="overflow-x-auto rounded-lg border border-line bg-panel">
+      {/* relative: the header's sr-only text is absolutely placed and must stay inside the scroll box. */}
+      <div className="relative overflow-x-auto rounded-lg border border-line bg-panel">
         <table className="w-full whitespace-nowrap text-sm">
           <caption className="sr-only">Captures, sorted by {params.sort} {params.order === 'asc' ? 'ascending' : 'descending'}</caption>
           <thead className="border-b border-line text-left text-xs uppercase tracking-wide text-muted">
@@ -184,7 +185,7 @@ function CapturesTableBody({ initialList }: CapturesTableProps) {
                       key={header.id}
                       scope="col"
                       aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
-                      className={'px-3 py-2 font-medium ' + (numeric ? 'text-right' : '')}
+                      className={'px-2.5 py-2 font-medium ' + (numeric ? 'text-right' : '')}
                     >
                       {sortable ? (
                         <button type="button" onClick={header.column.getToggleSortingHandler()} className="inline-flex items-center gap-1 uppercase hover:text-ink">
@@ -208,7 +209,7 @@ function CapturesTableBody({ initialList }: CapturesTableProps) {
                 {row.getVisibleCells().map((cell) => {
                   const numeric = (cell.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric;
                   return (
-                    <td key={cell.id} className={'px-3 py-2 align-top ' + (numeric ? 'text-right' : '')}>
+                    <td key={cell.id} className={'px-2.5 py-2 align-top ' + (numeric ? 'text-right' : '')}>
                       {flexRender(cell.column.columnDef.cell, cell.getContext())}
                     </td>
                   );

@@ -49,7 +49,7 @@ export function captureColumns(actions: RowActions): ColumnDef<Capture, any>[] {
     column.accessor('name', {
       header: 'Name',
       cell: ({ row }) => (
-        <div className="min-w-[14rem] max-w-[28rem] whitespace-normal">
+        <div className="min-w-[12rem] max-w-[28rem] whitespace-normal">
           <a href={`/captures/${row.original.id}`} className="font-medium text-ink hover:text-accent hover:underline">
             {row.original.name}
           </a>
@@ -60,8 +60,8 @@ export function captureColumns(actions: RowActions): ColumnDef<Capture, any>[] {
         </div>
       ),
     }),
-    column.accessor((c) => c.owner.name, { id: 'owner', header: 'Owner' }),
-    column.accessor('layout', { header: 'Layout', cell: ({ getValue }) => LAYOUT_LABELS[getValue() as Capture['layout']] }),
+    column.accessor((c) => c.owner.name, { id: 'owner', header: 'Owner', cell: ({ getValue }) => <span className="block min-w-[5rem] whitespace-normal">{getValue()}</span> }),
+    column.accessor('layout', { header: 'Layout', cell: ({ getValue }) => <span className="block min-w-[5rem] whitespace-normal">{LAYOUT_LABELS[getValue() as Capture['layout']]}</span> }),
     column.accessor('datatype', { header: 'Datatype', cell: ({ getValue }) => <span className="font-mono text-xs">{getValue()}</span> }),
     column.accessor('sampleRate', { header: 'Sample rate', cell: ({ getValue }) => <Quantity value={getValue()} unit="sps" />, meta: { numeric: true } }),
     column.accessor('centerFrequency', {
@@ -76,7 +76,7 @@ export function captureColumns(actions: RowActions): ColumnDef<Capture, any>[] {
       header: 'Tags',
       enableSorting: false,
       cell: ({ getValue }) => (
-        <div className="flex min-w-[11rem] max-w-[18rem] flex-wrap gap-1 whitespace-normal">
+        <div className="flex min-w-[7.5rem] max-w-[18rem] flex-wrap gap-1 whitespace-normal">
           {(getValue() as string[]).map((tag) => (
             <button
               key={tag}
@@ -93,9 +93,11 @@ export function captureColumns(actions: RowActions): ColumnDef<Capture, any>[] {
     }),
     column.accessor('createdAt', {
       header: 'Created (UTC)',
+      // Date over time keeps the column narrow enough for the table to fit beside the upload panel.
       cell: ({ getValue }) => (
-        <span className="font-mono text-xs tabular-nums" title={getValue()}>
-          {String(getValue()).slice(0, 16).replace('T', ' ')}
+        <span className="block font-mono text-xs leading-5 tabular-nums" title={getValue()}>
+          {String(getValue()).slice(0, 10)}
+          <span className="block text-muted">{String(getValue()).slice(11, 16)}</span>
         </span>
       ),
     }),
