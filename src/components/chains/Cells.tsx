@@ -3,7 +3,7 @@
  * (pointer) and by keyboard: the drag handle takes space + arrows, and Alt+↑ / Alt+↓ move the cell
  * that holds the focus.
  */
-import { DndContext, KeyboardSensor, PointerSensor, closestCenter, useSensor, useSensors, type DragEndEvent } from '@dnd-kit/core';
+import { DndContext, KeyboardSensor, PointerSensor, closestCorners, useSensor, useSensors, type DragEndEvent } from '@dnd-kit/core';
 import { SortableContext, sortableKeyboardCoordinates, verticalListSortingStrategy } from '@dnd-kit/sortable';
 import type { StagePropagation } from '@/dsp/chain/propagate';
 import type { ChainIssue, StreamFormat } from '@/dsp/types';
@@ -56,7 +56,7 @@ export default function Cells({ doc, input, inputLabel, propagation, stageIssues
         {input ? <FormatText format={input} /> : <span className="text-muted">unknown</span>}
         <span className="truncate text-muted">{inputLabel}</span>
       </div>
-      <DndContext sensors={sensors} collisionDetection={closestCenter} onDragEnd={onDragEnd}>
+      <DndContext sensors={sensors} collisionDetection={closestCorners} onDragEnd={onDragEnd}>
         <SortableContext items={doc.stages.map((s) => s.id)} strategy={verticalListSortingStrategy}>
           {doc.stages.map((stage, index) => {
             const p = propagation?.[index]?.stageId === stage.id ? propagation[index] : undefined;

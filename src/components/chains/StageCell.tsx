@@ -72,9 +72,9 @@ function StageCell({ stage, index, count, input, issues, response, probe, probeS
           {...listeners}
           disabled={readOnly}
           className={iconButton + ' cursor-grab font-mono tracking-tighter active:cursor-grabbing'}
-          aria-label={`Reorder ${stage.id}: press space, then the arrow keys, then space`}
+          aria-label={`Drag to reorder ${stage.id}; from the keyboard use Alt+↑ and Alt+↓ in any field of the cell`}
           aria-roledescription="sortable stage"
-          title="Drag to reorder (or focus and press space, arrows, space)"
+          title="Drag to reorder (keyboard: Alt+↑ / Alt+↓ in the cell, or the ↑ ↓ buttons)"
         >
           ⠿
         </button>
