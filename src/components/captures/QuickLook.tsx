@@ -1,5 +1,5 @@
-import { useMemo, useState } from 'react';
-import Plot, { PlotPlaceholder } from '../plots/Plot';
+import { useEffect, useMemo, useState } from 'react';
+import Plot, { PlotPlaceholder, preloadPlotly } from '../plots/Plot';
 import { usePlotTheme } from '../plots/plot-theme';
 import { Quantity } from '../Quantity';
 import { AnnotationsList } from './AnnotationsList';
@@ -26,6 +26,8 @@ function plotHeight(): number {
  */
 export default function QuickLook({ capture }: QuickLookProps) {
   const state = useQuickLook(capture);
+  // Plotly loads while the head is read and analysed, not after.
+  useEffect(preloadPlotly, []);
   const [plotPx] = useState(plotHeight);
   const theme = usePlotTheme();
   const annotations = useMemo(() => readAnnotations(capture.annotations), [capture.annotations]);

@@ -2,8 +2,17 @@ import { Component, lazy, Suspense, useMemo, useState, type ReactNode } from 're
 import type { Config, Data, Layout, PlotMouseEvent, PlotRelayoutEvent } from 'plotly.js-dist-min';
 import { usePlotTheme, type PlotTheme } from './plot-theme';
 
-// The 4.8 MB Plotly bundle arrives in its own chunk the first time a plot renders.
-const PlotlyComponent = lazy(() => import('./plotly-component'));
+// The 4.8 MB Plotly bundle arrives in its own chunk the first time a plot renders (or is preloaded).
+const loadPlotly = () => import('./plotly-component');
+const PlotlyComponent = lazy(loadPlotly);
+
+/**
+ * Starts fetching and evaluating the plot bundle now, e.g. while a page still reads its data, so
+ * the first plot does not wait for it afterwards. Safe to call more than once.
+ */
+export function preloadPlotly(): void {
+  loadPlotly().catch(() => undefined);
+}
 
 export interface PlotProps {
   /** What the plot shows, for screen readers and the PNG file name. */
