@@ -53,6 +53,20 @@ describe.skipIf(!hasChromium)('captures in a browser', { timeout: 120_000 }, () 
     await page.waitForFunction(() => document.querySelector('astro-island[ssr]') === null);
   }
 
+  /**
+   * Fills an input and checks it holds exactly `text`: React may still be attaching to the
+   * server-rendered form when the test starts typing, which can move the selection so the text
+   * lands after the default instead of replacing it.
+   */
+  async function fillExactly(input: ReturnType<Page['locator']>, text: string): Promise<void> {
+    for (let attempt = 0; attempt < 10; attempt++) {
+      await input.fill(text);
+      if ((await input.inputValue()) === text) return;
+      await new Promise((wake) => setTimeout(wake, 200));
+    }
+    throw new Error(`the field would not hold "${text}"`);
+  }
+
   const rowNames = (page: Page) => page.locator('[data-testid="captures-table"] tbody tr[data-capture-id] td:nth-child(2) a').allTextContents();
 
   it('lists the demo captures with their rates and sizes', async () => {
@@ -138,9 +152,9 @@ describe.skipIf(!hasChromium)('captures in a browser', { timeout: 120_000 }, () 
     await page.goto('/captures/synthesize');
     await hydrated(page);
     const form = page.getByTestId('synth-form');
-    await form.getByLabel('Name').first().fill('Bench tone, synthesized');
-    await form.getByLabel('Sample rate (Hz)').fill('2M');
-    await form.getByLabel('Frequency (Hz)', { exact: true }).fill('1.5 MHz');
+    await fillExactly(form.getByLabel('Name').first(), 'Bench tone, synthesized');
+    await fillExactly(form.getByLabel('Sample rate (Hz)'), '2M');
+    await fillExactly(form.getByLabel('Frequency (Hz)', { exact: true }), '1.5 MHz');
     await form.getByRole('button', { name: 'Synthesize and store' }).click();
     // A complex capture at 2 Msps holds -1 MHz to +1 MHz (Nyquist): the engine's own check names the tone.
     expect(await form.locator('[data-field-error="tones.0.frequency"]').textContent()).toMatch(/outside -fs\/2 to fs\/2/);
