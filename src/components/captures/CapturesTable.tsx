@@ -2,6 +2,7 @@ import { useEffect, useMemo, useState } from 'react';
 import { QueryClient, QueryClientProvider, keepPreviousData, useQuery, useQueryClient } from '@tanstack/react-query';
 import { flexRender, getCoreRowModel, useReactTable, type RowSelectionState, type SortingState } from '@tanstack/react-table';
 import { buttonSmall } from '../ui';
+import { TablePager } from '../TablePager';
 import { bulkDeleteCaptures, CAPTURES_CHANGED, deleteCapture, fetchCaptureList, type CaptureListParams } from './api';
 import { captureColumns, SORTABLE } from './capture-columns';
 import { CaptureFilters, emptyFilters, parseRate, type FilterValues } from './CaptureFilters';
@@ -134,9 +135,6 @@ function CapturesTableBody({ initialList }: CapturesTableProps) {
     await queryClient.invalidateQueries({ queryKey: ['captures'] });
   }
 
-  const first = list.total === 0 ? 0 : (list.page - 1) * list.pageSize + 1;
-  const last = Math.min(list.total, list.page * list.pageSize);
-  const pageCount = Math.max(1, Math.ceil(list.total / list.pageSize));
 
   return (
     <section aria-label="Captures" className="space-y-4" data-testid="captures-table" data-loading={query.isFetching || undefined}>
@@ -227,35 +225,18 @@ function CapturesTableBody({ initialList }: CapturesTableProps) {
         </table>
       </div>
 
-      <nav aria-label="Pages of captures" className="flex flex-wrap items-center justify-between gap-3 text-sm">
-        <span className="text-muted">
-          <span className="font-mono tabular-nums">{first}</span>–<span className="font-mono tabular-nums">{last}</span> of{' '}
-          <span className="font-mono tabular-nums">{list.total}</span>
-        </span>
-        <div className="flex items-center gap-2">
-          <label className="text-muted">
-            Per page{' '}
-            <select
-              className="ml-1 rounded border border-muted/40 bg-surface px-2 py-1 text-sm text-ink"
-              value={pagination.pageSize}
-              onChange={(e) => setPagination({ pageIndex: 0, pageSize: Number(e.target.value) })}
-            >
-              {PAGE_SIZES.map((n) => (
-                <option key={n}>{n}</option>
-              ))}
-            </select>
-          </label>
-          <button type="button" className={buttonSmall} disabled={!table.getCanPreviousPage()} onClick={() => table.previousPage()}>
-            Previous
-          </button>
-          <span className="font-mono text-xs tabular-nums text-muted">
-            {list.page} / {pageCount}
-          </span>
-          <button type="button" className={buttonSmall} disabled={!table.getCanNextPage()} onClick={() => table.nextPage()}>
-            Next
-          </button>
-        </div>
-      </nav>
+      <TablePager
+        noun="captures"
+        page={list.page}
+        pageSize={list.pageSize}
+        total={list.total}
+        pageSizes={PAGE_SIZES}
+        onPageSize={(pageSize) => setPagination({ pageIndex: 0, pageSize })}
+        canPrevious={table.getCanPreviousPage()}
+        canNext={table.getCanNextPage()}
+        onPrevious={() => table.previousPage()}
+        onNext={() => table.nextPage()}
+      />
 
       <ConfirmDialog
         open={toDelete !== null}
