@@ -227,6 +227,20 @@ export function objectStoreContract(name: string, open: () => Promise<ContractHa
       await expectNothingStored(key);
     });
 
+    it('stops on an abort while the source waits for bytes that never come, and leaves nothing', async () => {
+      const key = 'fail/stalled';
+      const controller = new AbortController();
+      // A client that sent 5 MiB, then went quiet without closing: only the abort can end the put.
+      const source = (async function* () {
+        yield randomBytes(5 * MiB);
+        setTimeout(() => controller.abort(new Error('client went away')), 50);
+        await new Promise(() => undefined);
+      })();
+      const error = await store.put(key, source, { signal: controller.signal }).catch((e: unknown) => e);
+      expect(error).toBeInstanceOf(StorageAbortedError);
+      await expectNothingStored(key);
+    });
+
     it('refuses an already aborted signal', async () => {
       await expect(
         store.put('fail/pre-aborted', chunked(randomBytes(10)), { signal: AbortSignal.abort() }),

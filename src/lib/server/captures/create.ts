@@ -13,7 +13,6 @@
  *  5. on any failure after the put, delete the new object.
  */
 import { randomUUID } from 'node:crypto';
-import { Readable } from 'node:stream';
 import type { Knex } from 'knex';
 import type { Actor } from '@/lib/permissions';
 import type { ObjectStore } from '../storage';
@@ -24,9 +23,6 @@ import { bytesPerSampleOf, openUpload, partialSampleError, wholeSamples, type Ch
 import { DuplicateCaptureError, ingestError } from './errors';
 import { findCapture, type CaptureRow, type CaptureSource, type CaptureWithOwner } from './rows';
 import { captureObjectKey } from './store';
-
-/** Bytes read ahead of the object store (bytes). */
-const READ_AHEAD_BYTES = 4 * 1024 * 1024;
 
 /** Everything the command needs to take in one capture. */
 export interface CaptureIntake {
@@ -67,12 +63,8 @@ export async function createCapture(db: Knex, store: ObjectStore, intake: Captur
     }
     const id = randomUUID();
     const key = captureObjectKey(id);
-    // A 4 MiB buffer between the body and the store lets the next bytes arrive while the store
-    // is busy writing (or uploading a part), instead of the two taking turns chunk by chunk.
-    const samples = Readable.from(wholeSamples(opened.data, description.datatype, description.layout), {
-      objectMode: false,
-      highWaterMark: READ_AHEAD_BYTES,
-    });
+    // Checked on the way; each store reads ahead of its own writes (see LocalFileStore.put, S3Store.put).
+    const samples = wholeSamples(opened.data, description.datatype, description.layout);
     const stored = await store.put(key, samples, {
       maxBytes: allowance.maxBytes,
       expectedBytes: opened.dataBytes ?? undefined,

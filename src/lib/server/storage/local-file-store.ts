@@ -1,15 +1,17 @@
 import { randomUUID } from 'node:crypto';
-import { createWriteStream } from 'node:fs';
-import { mkdir, open, readdir, rename, rm, stat, unlink } from 'node:fs/promises';
+import { mkdir, open, readdir, rename, rm, stat, unlink, type FileHandle } from 'node:fs/promises';
 import { basename, dirname, join } from 'node:path';
 import { Readable } from 'node:stream';
-import { pipeline } from 'node:stream/promises';
-import { ByteMeter, checkPutOptions, toReadable } from './byte-meter';
+import { ByteTally, checkPutOptions, chunksOf } from './byte-meter';
 import { ObjectNotFoundError, StorageAbortedError } from './errors';
 import { assertKeyPrefix, assertObjectKey, resolveRange } from './keys';
 import type { ByteRange, ObjectInfo, ObjectRead, ObjectSource, ObjectStore, PutOptions, PutResult } from './types';
 
 const TEMP_SUFFIX = '.partial';
+/** Bytes gathered before one `writev` (bytes); two batches at most are held per put. */
+const WRITE_BATCH_BYTES = 4 * 1024 * 1024;
+/** Buffers one `writev` call takes at most (Linux IOV_MAX is 1024). */
+const MAX_BUFFERS_PER_WRITE = 1024;
 
 /**
  * Objects as plain files under one root folder (`${QUADRILLE_DATA_DIR}/objects`), one file per
@@ -26,7 +28,12 @@ export class LocalFileStore implements ObjectStore {
     this.root = root;
   }
 
-  /** Streams the source to a temporary file, fsyncs it and renames it into place. */
+  /**
+   * Streams the source to a temporary file, fsyncs it and renames it into place. Chunks are
+   * gathered into batches of WRITE_BATCH_BYTES written with one `writev` each, and the next batch
+   * is gathered (hashed, counted) while the previous one is being written: at most two batches
+   * are held, and a slow disk slows the sender through the source's back-pressure.
+   */
   async put(key: string, source: ObjectSource, options: PutOptions = {}): Promise<PutResult> {
     assertObjectKey(key);
     checkPutOptions(options);
@@ -37,24 +44,44 @@ export class LocalFileStore implements ObjectStore {
     const folder = dirname(target);
     await mkdir(folder, { recursive: true });
     const temp = join(folder, `.${basename(target)}.${randomUUID()}${TEMP_SUFFIX}`);
-    const meter = new ByteMeter(options);
-    // `flush` fsyncs before close: the rename must not publish a file whose data is still only
-    // in the page cache. 'wx' refuses to reuse a stray temporary name.
-    const file = createWriteStream(temp, { flags: 'wx', flush: true, highWaterMark: 1 << 20 });
+    const tally = new ByteTally(options);
+    // 'wx' refuses to reuse a stray temporary name.
+    const file = await open(temp, 'wx');
+    let closed = false;
+    let writing: Promise<void> | null = null;
     let published = false;
     try {
-      await pipeline(toReadable(source), meter, file, signal ? { signal } : {});
+      let batch: Uint8Array[] = [];
+      let batchBytes = 0;
+      for await (const chunk of abortable(chunksOf(source), signal)) {
+        tally.add(chunk);
+        batch.push(chunk);
+        batchBytes += chunk.byteLength;
+        if (batchBytes >= WRITE_BATCH_BYTES) {
+          await writing;
+          writing = writeAll(file, batch);
+          batch = [];
+          batchBytes = 0;
+        }
+      }
+      tally.finish();
+      await writing;
+      writing = null;
+      if (batch.length > 0) await writeAll(file, batch);
+      // The rename must not publish a file whose data is still only in the page cache.
+      await file.sync();
+      closed = true;
+      await file.close();
       await rename(temp, target);
       published = true;
       await syncFolder(folder);
-      return { key, ...meter.result() };
+      return { key, ...tally.result() };
     } catch (error) {
       // A rename whose folder entry could not be made durable is not a completed put either.
       if (published) await rm(target, { force: true });
-      // Wait for the descriptor to close: removing the name while the open is still pending
-      // would let the open create the file again afterwards.
-      file.destroy();
-      if (!file.closed) await new Promise<void>((resolve) => file.once('close', () => resolve()));
+      // Let a write in flight end before the descriptor closes and the name goes.
+      await writing?.catch(() => undefined);
+      if (!closed) await file.close().catch(() => undefined);
       await rm(temp, { force: true });
       if (signal?.aborted) throw new StorageAbortedError(signal.reason);
       throw error;
@@ -172,4 +199,61 @@ async function syncFolder(folder: string): Promise<void> {
   } finally {
     await handle.close();
   }
+}
+
+/** Writes every byte of `buffers` at the file's current position (writev may write part of them). */
+async function writeAll(file: FileHandle, buffers: Uint8Array[]): Promise<void> {
+  let pending = buffers;
+  while (pending.length > 0) {
+    const slice = pending.slice(0, MAX_BUFFERS_PER_WRITE);
+    let { bytesWritten } = await file.writev(slice);
+    const rest = pending.slice(slice.length);
+    // Drop the buffers written whole, keep the unwritten tail of a partly written one.
+    let index = 0;
+    while (index < slice.length && bytesWritten >= slice[index]!.byteLength) bytesWritten -= slice[index++]!.byteLength;
+    pending = index < slice.length ? [slice[index]!.subarray(bytesWritten), ...slice.slice(index + 1), ...rest] : rest;
+  }
+}
+
+/**
+ * Iterates `chunks`, ending with StorageAbortedError as soon as `signal` aborts, even while the
+ * source is waiting for bytes that will never come (a client that stopped sending). Each wait
+ * gets its own abort listener, removed when the chunk arrives: racing every chunk against one
+ * long-lived promise would keep every chunk reachable from that promise until the put ends.
+ */
+async function* abortable(chunks: AsyncIterable<Uint8Array>, signal: AbortSignal | undefined): AsyncGenerator<Uint8Array> {
+  if (!signal) {
+    yield* chunks;
+    return;
+  }
+  const iterator = chunks[Symbol.asyncIterator]();
+  try {
+    for (;;) {
+      if (signal.aborted) throw new StorageAbortedError(signal.reason);
+      const next = await untilAborted(iterator.next(), signal);
+      if (next.done) return;
+      yield next.value;
+    }
+  } finally {
+    // Stop the source (destroys a Node stream) without waiting on a stalled one.
+    void Promise.resolve(iterator.return?.()).catch(() => undefined);
+  }
+}
+
+/** `pending`, or StorageAbortedError as soon as `signal` aborts. */
+function untilAborted<T>(pending: Promise<T>, signal: AbortSignal): Promise<T> {
+  return new Promise<T>((resolve, reject) => {
+    const onAbort = () => reject(new StorageAbortedError(signal.reason));
+    signal.addEventListener('abort', onAbort, { once: true });
+    pending.then(
+      (value) => {
+        signal.removeEventListener('abort', onAbort);
+        resolve(value);
+      },
+      (error: unknown) => {
+        signal.removeEventListener('abort', onAbort);
+        reject(error);
+      },
+    );
+  });
 }

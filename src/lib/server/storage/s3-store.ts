@@ -13,6 +13,8 @@ import { assertKeyPrefix, assertObjectKey, resolveRange } from './keys';
 import type { ByteRange, ObjectInfo, ObjectRead, ObjectSource, ObjectStore, PutOptions, PutResult } from './types';
 
 const MiB = 1024 * 1024;
+/** Bytes read ahead of the multipart uploader from a source that is not already a stream. */
+const READ_AHEAD_BYTES = 4 * MiB;
 /** S3 refuses multipart uploads of more parts than this. */
 const MAX_PARTS = 10_000;
 
@@ -92,7 +94,9 @@ export class S3Store implements ObjectStore {
     const { signal } = options;
     if (signal?.aborted) throw new StorageAbortedError(signal.reason);
 
-    const input = toReadable(source);
+    // Reading ahead of the uploader lets the next bytes arrive while a part is being sent,
+    // instead of the two taking turns chunk by chunk.
+    const input = toReadable(source, READ_AHEAD_BYTES);
     const meter = new ByteMeter(options);
     // The first failure of the byte stream (source error, limit, abort) is the one to report:
     // the uploader may replace it with a later error of its own clean-up.
