@@ -4,7 +4,7 @@
  * independent of the store's streaming hash).
  */
 import { createHash, randomBytes } from 'node:crypto';
-import { Readable } from 'node:stream';
+import { PassThrough, Readable } from 'node:stream';
 import { buffer } from 'node:stream/consumers';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import {
@@ -238,6 +238,16 @@ export function objectStoreContract(name: string, open: () => Promise<ContractHa
       })();
       const error = await store.put(key, source, { signal: controller.signal }).catch((e: unknown) => e);
       expect(error).toBeInstanceOf(StorageAbortedError);
+      await expectNothingStored(key);
+    });
+
+    it('reports a stream source that failed before the put began reading it, and leaves nothing', async () => {
+      const key = 'fail/early';
+      const source = new PassThrough();
+      const putting = store.put(key, source);
+      // Like a run whose first block fails: the producer destroys its stream at once.
+      source.destroy(new Error('chain failed at its first block'));
+      await expect(putting).rejects.toThrow(/first block/);
       await expectNothingStored(key);
     });
 

@@ -40,6 +40,10 @@ export class LocalFileStore implements ObjectStore {
     const { signal } = options;
     if (signal?.aborted) throw new StorageAbortedError(signal.reason);
 
+    // A stream source may fail before the loop below starts reading it (a run that fails at its
+    // first block); the loop still sees that error, but without a listener meanwhile it would
+    // also be thrown as an uncaught 'error' event.
+    if (source instanceof Readable) source.on('error', ignoreError);
     const target = this.pathOf(key);
     const folder = dirname(target);
     await mkdir(folder, { recursive: true });
@@ -199,6 +203,10 @@ async function syncFolder(folder: string): Promise<void> {
   } finally {
     await handle.close();
   }
+}
+
+function ignoreError(): void {
+  // The put reports the source's error through its own read loop.
 }
 
 /** Writes every byte of `buffers` at the file's current position (writev may write part of them). */
