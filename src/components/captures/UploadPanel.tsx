@@ -73,7 +73,7 @@ export default function UploadPanel() {
     setErrors(found);
     if (!description || !picked) return;
     let sha256: string | null = null;
-    if (picked.samplesBlob.size <= HASH_LIMIT_BYTES) {
+    if (picked.samplesBlob && picked.samplesBlob.size <= HASH_LIMIT_BYTES) {
       setStage({ kind: 'checking', what: 'Computing the sha256 to find an identical capture…' });
       sha256 = await sha256Of(picked.samplesBlob).catch(() => null);
     }

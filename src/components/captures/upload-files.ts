@@ -5,6 +5,7 @@
  */
 import { FormatError, formatDatatype, parseDatatype } from '@/dsp/formats/datatype';
 import { parseSigmfMeta, sigmfSampleShape } from '@/dsp/formats/sigmf-meta';
+import { widenedPcm24Bytes } from '@/dsp/formats/pcm24';
 import { WavReader } from '@/dsp/formats/wav-reader';
 import type { SampleType } from '@/dsp/types';
 import { readTarMembers } from './tar-members';
@@ -33,9 +34,9 @@ export interface PickedUpload {
   sigmfMeta?: string;
   /** Bytes of samples (for WAV: the data chunk as declared). */
   sampleBytes: number;
-  /** The sample bytes as the server stores and hashes them (a WAV's data chunk, not the whole file). */
-  samplesBlob: Blob;
-  /** A WAV header whose encoding SigMF cannot name (24-bit PCM): the server converts it, the pre-check is skipped. */
+  /** The sample bytes as the server stores and hashes them (a WAV's data chunk, not the whole file); null when the server converts them (24-bit WAV). */
+  samplesBlob: Blob | null;
+  /** What happens to a WAV encoding SigMF cannot name (24-bit PCM is stored widened to 32-bit). */
   note?: string;
 }
 
@@ -114,18 +115,27 @@ async function wavUpload(file: File): Promise<PickedUpload> {
   if (!reader.format || reader.dataBytes === null) throw new PickError(`${file.name}: no fmt and data chunk within the first 64 KiB.`);
   let datatype: string | undefined;
   let note: string | undefined;
-  try {
-    datatype = formatDatatype(reader.format.encoding, false);
-  } catch {
-    note = `${reader.format.bitsPerSample}-bit samples have no SigMF datatype; the server will convert them.`;
+  let sampleBytes = reader.dataBytes;
+  const { encoding } = reader.format;
+  if (encoding.kind === 'i' && encoding.bits === 24) {
+    // Stored widened to 32-bit (formats/pcm24.ts): a third more bytes than the data chunk.
+    datatype = formatDatatype({ ...encoding, bits: 32 }, false);
+    sampleBytes = widenedPcm24Bytes(reader.dataBytes);
+    note = '24-bit PCM has no SigMF datatype: the samples are stored widened to 32-bit integers (same full scale, lossless, a third larger).';
+  } else {
+    try {
+      datatype = formatDatatype(encoding, false);
+    } catch {
+      note = `${reader.format.bitsPerSample}-bit samples have no SigMF datatype.`;
+    }
   }
   return {
     kind: 'wav',
     body: file,
     fileName: file.name,
     suggestedName: stem(file.name),
-    sampleBytes: reader.dataBytes,
-    samplesBlob: file.slice(dataOffset(head), dataOffset(head) + reader.dataBytes),
+    sampleBytes,
+    samplesBlob: sampleBytes === reader.dataBytes ? file.slice(dataOffset(head), dataOffset(head) + reader.dataBytes) : null,
     note,
     stated: { datatype, layout: reader.layout ?? undefined, sampleRate: reader.format.sampleRate, centerFrequency: null },
   };

@@ -8,3 +8,4 @@ export * from './wav-format';
 export * from './wav-reader';
 export * from './wav-writer';
 export * from './sigmf-meta';
+export * from './pcm24';

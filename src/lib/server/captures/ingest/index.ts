@@ -3,7 +3,7 @@
  * RIFF chunks for WAV, the meta member for a `.sigmf` archive), says what it learned, and hands
  * out the sample bytes as a stream plus a `finish` step for whatever follows them.
  */
-import { FormatError, buildSigmfMeta, sigmfSampleShape, type SigmfMeta } from '@/dsp/formats';
+import { FormatError, Pcm24Widener, buildSigmfMeta, sigmfSampleShape, widenedPcm24Bytes, type SigmfMeta } from '@/dsp/formats';
 import type { StatedFields } from '../metadata';
 import { ByteReader, type ChunkSource } from './byte-reader';
 import { finishSigmfArchive, readSigmfArchiveHead } from './sigmf-archive';
@@ -41,10 +41,17 @@ export async function openUpload(format: UploadFormat, source: ChunkSource, opti
   }
   if (format === 'wav') {
     const header = await readWavHeader(reader, options.asComplex ?? false);
+    const data = reader.take(header.dataBytes, 'body', 'the WAV data chunk');
+    // The WAV reader has already refused a data chunk that is not a whole number of frames.
     return {
-      file: { datatype: header.datatype, layout: header.layout, sampleRate: header.sampleRate },
-      dataBytes: header.dataBytes,
-      data: reader.take(header.dataBytes, 'body', 'the WAV data chunk'),
+      file: {
+        datatype: header.datatype,
+        layout: header.layout,
+        sampleRate: header.sampleRate,
+        ...(header.widen24 ? { notes: `Uploaded as 24-bit PCM WAV; stored widened to ${header.datatype.name} (same full scale, lossless).` } : {}),
+      },
+      dataBytes: header.widen24 ? widenedPcm24Bytes(header.dataBytes) : header.dataBytes,
+      data: header.widen24 ? widen24(data) : data,
       // Chunks after the samples (LIST, id3) carry nothing a capture keeps.
       finish: async () => void (await reader.skip(Number.MAX_SAFE_INTEGER)),
     };
@@ -56,6 +63,16 @@ export async function openUpload(format: UploadFormat, source: ChunkSource, opti
     data: reader.take(head.dataBytes, 'body', 'the .sigmf-data member'),
     finish: () => finishSigmfArchive(reader, head.dataBytes),
   };
+}
+
+/** The widened bytes of a stream of 24-bit values. */
+async function* widen24(chunks: AsyncIterable<Uint8Array>): AsyncGenerator<Uint8Array> {
+  const widener = new Pcm24Widener();
+  for await (const chunk of chunks) {
+    const out = widener.push(chunk);
+    if (out.byteLength > 0) yield out;
+  }
+  widener.end();
 }
 
 /**

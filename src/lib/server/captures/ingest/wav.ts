@@ -2,6 +2,8 @@
  * WAV upload: the RIFF chunks before the `data` chunk are walked here and fed to the formats
  * WavReader, which checks them (lying sizes, odd formats); the data chunk's bytes are then handed
  * on untouched, so a WAV capture is stored as its raw samples with the matching SigMF datatype.
+ * 24-bit PCM, which SigMF has no datatype for, is the one exception: it is widened to 32-bit on
+ * the way (formats/pcm24.ts) and stored as ri32_le / ci32_le with the same full scale.
  */
 import { FormatError, WavReader, formatDatatype, parseDatatype, type Datatype } from '@/dsp/formats';
 import type { SampleType } from '@/dsp/types';
@@ -18,6 +20,8 @@ export interface WavHeader {
   sampleRate: number;
   /** Bytes of sample data the data chunk declares. */
   dataBytes: number;
+  /** The file holds 24-bit PCM, stored widened to the 32-bit `datatype`. */
+  widen24: boolean;
 }
 
 /**
@@ -48,13 +52,15 @@ export async function readWavHeader(reader: ByteReader, asComplex: boolean): Pro
     throw asBodyError(error);
   }
   const format = wav.format!;
+  const widen24 = format.encoding.kind === 'i' && format.bitsPerSample === 24;
+  const encoding = widen24 ? { ...format.encoding, bits: 32 as const } : format.encoding;
   let datatype: Datatype;
   try {
-    datatype = parseDatatype(formatDatatype(format.encoding, wav.layout === 'complex'));
+    datatype = parseDatatype(formatDatatype(encoding, wav.layout === 'complex'));
   } catch (error) {
-    throw new FormatError(`datatype: ${format.bitsPerSample}-bit WAV samples have no SigMF datatype (use 8, 16 or 32-bit PCM, or float)`, 'datatype');
+    throw new FormatError(`datatype: ${format.bitsPerSample}-bit WAV samples have no SigMF datatype (use 8, 16, 24 or 32-bit PCM, or float)`, 'datatype');
   }
-  return { datatype, layout: wav.layout!, sampleRate: format.sampleRate, dataBytes: wav.dataBytes! };
+  return { datatype, layout: wav.layout!, sampleRate: format.sampleRate, dataBytes: wav.dataBytes!, widen24 };
 }
 
 function ascii(header: Uint8Array): string {
