@@ -68,7 +68,7 @@ async function waitForServer(url: string, timeoutMs = 60_000): Promise<boolean> 
 async function serve(showDemo: boolean): Promise<void> {
   const host = process.env.HOST || 'localhost';
   const port = process.env.PORT || '4321';
-  const server = spawn(process.execPath, [entry], { stdio: 'inherit', env: { ...process.env, HOST: host, PORT: port } });
+  const server = spawn(process.execPath, ['scripts/serve.mjs', entry], { stdio: 'inherit', env: { ...process.env, HOST: host, PORT: port } });
   for (const signal of ['SIGINT', 'SIGTERM'] as const) process.on(signal, () => server.kill(signal));
   server.on('exit', (code, signal) => process.exit(code ?? (signal ? 0 : 1)));
   const shownHost = host === '0.0.0.0' || host === '::' ? 'localhost' : host;

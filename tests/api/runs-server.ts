@@ -14,6 +14,8 @@ import { seedDemo } from '@/lib/server/seed';
 /** The build under test: dist/ (npm test builds it), or QUADRILLE_TEST_DIST for a private build. */
 const distDir = resolve(process.env.QUADRILLE_TEST_DIST ?? 'dist');
 const entry = join(distDir, 'server/entry.mjs');
+/** Our HTTP server around the built app (request timeouts fit long uploads). */
+const serveScript = resolve('scripts/serve.mjs');
 
 /** A built server on a data folder the test owns; it may be killed and started again on the same folder. */
 export interface RunsServer {
@@ -48,7 +50,7 @@ export async function startRunsServer(options: { dataDir?: string; env?: Record<
   const dataDir = options.dataDir ?? mkdtempSync(join(tmpdir(), 'quadrille-runs-'));
   const db = openDb(dataDir);
   const port = await freePort();
-  const child = spawn(process.execPath, [entry], {
+  const child = spawn(process.execPath, [serveScript, entry], {
     env: { ...process.env, QUADRILLE_RUN_CONCURRENCY: '1', ...options.env, QUADRILLE_DATA_DIR: dataDir, HOST: '127.0.0.1', PORT: String(port), NODE_ENV: 'test' },
     stdio: ['ignore', 'pipe', 'pipe'],
   });

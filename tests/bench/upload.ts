@@ -25,6 +25,8 @@ import { join, resolve } from 'node:path';
 
 const MiB = 1024 * 1024;
 const entry = resolve('dist/server/entry.mjs');
+/** Our HTTP server around the built app (request timeouts fit long uploads). */
+const serveScript = resolve('scripts/serve.mjs');
 const TARGET_MB_PER_S = 200;
 const TARGET_RSS_MIB = 64;
 
@@ -198,7 +200,7 @@ async function main(): Promise<void> {
   const dataDir = mkdtempSync(join(argValue('--data-dir') ?? tmpdir(), 'quadrille-bench-upload-'));
   const port = await freePort();
   const baseUrl = `http://127.0.0.1:${port}`;
-  const child = spawn(process.execPath, [...(process.env.BENCH_SERVER_NODE_ARGS?.split(' ').filter(Boolean) ?? []), entry], {
+  const child = spawn(process.execPath, [...(process.env.BENCH_SERVER_NODE_ARGS?.split(' ').filter(Boolean) ?? []), serveScript, entry], {
     env: {
       ...process.env,
       QUADRILLE_DATA_DIR: dataDir,

@@ -14,6 +14,8 @@ import { seedDemo } from '@/lib/server/seed';
 
 // QUADRILLE_TEST_ENTRY points at another build (one engineer's outDir) without touching dist/.
 const entry = resolve(process.env.QUADRILLE_TEST_ENTRY ?? 'dist/server/entry.mjs');
+/** Our HTTP server around the built app (request timeouts fit long uploads). */
+const serveScript = resolve('scripts/serve.mjs');
 
 export interface TestServer {
   /** e.g. http://127.0.0.1:40123 */
@@ -52,7 +54,7 @@ export async function startServer(options: StartOptions = {}): Promise<TestServe
   await migrateToLatest(db);
   if (options.demo ?? true) await seedDemo(db);
   const port = await freePort();
-  const child = spawn(process.execPath, [entry], {
+  const child = spawn(process.execPath, [serveScript, entry], {
     env: { ...process.env, ...options.env, QUADRILLE_DATA_DIR: dataDir, HOST: '127.0.0.1', PORT: String(port), NODE_ENV: 'test' },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
