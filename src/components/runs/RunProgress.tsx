@@ -13,14 +13,18 @@ export interface RunProgressProps {
 }
 
 /**
- * Progress of a run: a bar with the percentage, and (full form) the stage working now and an
+ * Progress of a run: a bar with the percentage, and (full form) what the run is doing and an
  * estimate of the time left. A queued run shows an empty bar with "waiting for a worker".
  */
 export function RunProgress({ status, progress, currentStage, etaSeconds, compact }: RunProgressProps) {
   const fraction = status === 'succeeded' ? 1 : Math.min(1, Math.max(0, progress));
   const percent = Math.floor(fraction * 100);
   const tone = status === 'failed' ? 'bg-danger' : status === 'cancelled' ? 'bg-muted/60' : status === 'succeeded' ? 'bg-ok' : 'bg-accent';
-  const stage = currentStage ? (compact ? currentStage : `stage ${currentStage}`) : 'starting';
+  // Blocks stream through every stage at once; a stage is named only while its held-back
+  // output (filter tails, last spectrum segments) is drained at the end.
+  const stage = currentStage
+    ? compact ? `finishing ${currentStage}` : `finishing stage ${currentStage}`
+    : progress > 0 ? (compact ? 'streaming' : 'streaming through every stage') : 'starting';
   const left = etaSeconds !== null ? (compact ? `${formatDuration(etaSeconds)} left` : `about ${formatDuration(etaSeconds)} left`) : null;
   const detail = status === 'queued' ? 'waiting for a worker' : status === 'running' ? [stage, left].filter(Boolean).join(' · ') : null;
   return (
