@@ -8,6 +8,7 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ENGINE_VERSION } from '@/dsp/version';
 import { cacheKey, computationHash } from '@/lib/server/runs/cache-key';
+import { utcDay } from '@/lib/server/runs/transitions';
 import type { Client } from '../helpers/client';
 import {
   blindIqChain, complexTone, createChain, finished, quickChain, signedIn, slowChain, sleep, startRunsServer, submitRun, synthCapture,
@@ -73,6 +74,29 @@ describe('concurrency and cancel', () => {
     // Cancelling again is a conflict, not a second cancel.
     expect((await engineer.post(`/api/runs/${first.id}/cancel`)).status).toBe(409);
   }, 180_000);
+});
+
+describe('compute quota at start', () => {
+  it('fails a queued run with kind quota when the day\'s compute seconds ran out while it waited', async () => {
+    const first = await submitRun(engineer, await createChain(engineer, slowChain()), bigCapture);
+    await waitForRun(engineer, first.id, (run) => run.status === 'running', 30_000);
+    // A chain no earlier test ran, so no cached result can answer it.
+    const waiting = await submitRun(engineer, await createChain(engineer, quickChain(123_456)), smallCapture);
+    expect(waiting.status).toBe('queued');
+    const user = await server.db('users').where({ email: 'engineer@saltmarsh.test' }).first('id');
+    const day = utcDay(new Date());
+    await server.db('compute_usage').insert({ user_id: user.id, day, seconds: 1e9 }).onConflict(['user_id', 'day']).merge();
+    try {
+      await engineer.post(`/api/runs/${first.id}/cancel`);
+      const failed = await waitForRun(engineer, waiting.id, finished, 30_000);
+      expect(failed.status).toBe('failed');
+      expect(failed.error).toMatchObject({ kind: 'quota', stageId: null });
+      expect(failed.error.message).toMatch(/compute seconds for today were used up/);
+      expect(failed.permissions.retry).toBe(true);
+    } finally {
+      await server.db('compute_usage').where({ user_id: user.id, day }).delete();
+    }
+  }, 120_000);
 });
 
 describe('failure and retry', () => {

@@ -15,6 +15,7 @@ import { getObjectStore } from '../captures/store';
 import { findCapture } from '../captures/rows';
 import { findRevision } from '../chains/rows';
 import { quotaOf } from '../quota';
+import { computeSecondsToday } from './usage';
 import type { ObjectStore } from '../storage';
 import { cacheKey, computationHash } from './cache-key';
 import { progressIntervalMs, runConcurrency, workerNiceness } from './config';
@@ -157,6 +158,14 @@ export class RunScheduler {
     const cached = (await this.db('run_results').where({ cache_key: facts.cacheKey }).first('id')) as { id: string } | undefined;
     if (cached) {
       await completeFromCache(this.db, run, cached.id);
+      return;
+    }
+    // Submission checked the compute quota, but runs queued before earlier ones used it up must
+    // not start on time the user no longer has (cache hits above cost nothing and still answer).
+    const [quota, used] = await Promise.all([quotaOf(this.db, run.requested_by), computeSecondsToday(this.db, run.requested_by)]);
+    if (used >= quota.computeSecondsPerDay) {
+      const message = `Your ${quota.computeSecondsPerDay} compute seconds for today were used up (${Math.round(used)} s) while this run waited in the queue; retry it after 00:00 UTC.`;
+      await recordFailure(this.db, run, { message, stageId: null, kind: 'quota', sampleIndex: null }, 0);
       return;
     }
     const job: RunJob = {
