@@ -120,7 +120,7 @@ export function AnnotationEditor({ existing, initialValues, capture, onSave, onC
       </div>
       <div className="flex gap-2">
         <button type="submit" className={buttonPrimary} disabled={formState.isSubmitting}>
-          {formState.isSubmitting ? 'Saving…' : existing ? 'Save annotation' : 'Add annotation'}
+          {formState.isSubmitting ? 'Saving…' : 'Save annotation'}
         </button>
         <button type="button" className={buttonSecondary} onClick={onCancel} disabled={formState.isSubmitting}>
           Cancel
