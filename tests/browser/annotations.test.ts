@@ -73,7 +73,8 @@ describe.skipIf(!hasChromium)('capture annotations in a browser', { timeout: 180
     await form.getByLabel('Start').fill('12.5 ms');
     await form.getByLabel('Duration').fill('2 ms');
     // The start's hint says which sample the time lands on: 12.5 ms x 4 Msps.
-    expect(await form.textContent()).toContain('= 50,000 samples from the start');
+    expect(await form.textContent()).toContain('= sample 50,000');
+    expect(await form.textContent()).toContain('= 8,000 samples');
     await form.getByLabel('Lower edge').fill('2.4121 GHz');
     await form.getByLabel('Upper edge').fill('2413.1 MHz');
     await form.getByLabel('Comment').fill('First beacon after power-up.');

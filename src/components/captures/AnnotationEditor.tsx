@@ -29,14 +29,14 @@ export interface AnnotationEditorProps {
   onCancel: () => void;
 }
 
-/** What a start or duration text stands for, in the other unit: "= sample 50,000" or "= 12.5 ms". */
-function samplesHint(text: string, sampleRate: number, fallback: string): string {
+/** What a start or duration text stands for in the other unit: "= sample 50,000", "= 8,000 samples" or "= 12.5 ms". */
+function samplesHint(text: string, sampleRate: number, kind: 'position' | 'length', fallback: string): string {
   if (!text.trim()) return fallback;
   const reading = parseSamples(text, sampleRate);
   if (!reading.ok) return fallback;
-  return reading.fromTime
-    ? `= ${reading.samples.toLocaleString('en')} samples from the start`
-    : `= ${formatSampleTime(reading.samples, sampleRate)}`;
+  if (!reading.fromTime) return `= ${formatSampleTime(reading.samples, sampleRate)}`;
+  const samples = reading.samples.toLocaleString('en');
+  return kind === 'position' ? `= sample ${samples}` : `= ${samples} samples`;
 }
 
 /**
@@ -82,7 +82,7 @@ export function AnnotationEditor({ existing, initialValues, capture, onSave, onC
           {...register('start')}
           error={errors.start?.message}
           placeholder="12.5 ms or 50000"
-          hint={samplesHint(start, capture.sampleRate, 'A time or a sample number')}
+          hint={samplesHint(start, capture.sampleRate, 'position', 'A time or a sample number')}
           autoComplete="off"
         />
         <Field
@@ -91,7 +91,7 @@ export function AnnotationEditor({ existing, initialValues, capture, onSave, onC
           {...register('duration')}
           error={errors.duration?.message}
           placeholder="e.g. 2 ms"
-          hint={samplesHint(duration, capture.sampleRate, 'Empty: no length')}
+          hint={samplesHint(duration, capture.sampleRate, 'length', 'Empty: no length')}
           autoComplete="off"
         />
       </div>

@@ -64,9 +64,19 @@ function QuickLookView({ capture }: QuickLookProps) {
     };
   }, [result, capture.centerFrequency, capture.layout, annotations, theme]);
   const spectrogramLayout = useMemo<Partial<Layout> | undefined>(
-    () => (figures ? { ...figures.spectrogram.layout, dragmode: canEdit ? 'select' : 'zoom', selections: [] } : undefined),
+    () =>
+      figures
+        ? {
+            ...figures.spectrogram.layout,
+            dragmode: canEdit ? 'select' : 'zoom',
+            selections: [],
+            // The box being marked stands apart from the white dotted boxes of saved annotations.
+            newselection: { line: { color: theme.accent, width: 2, dash: 'dash' } },
+            activeselection: { fillcolor: theme.accent, opacity: 0.12 },
+          }
+        : undefined,
     // selectionRevision is a dependency only so that a new, empty selections list is drawn.
-    [figures, canEdit, selectionRevision],
+    [figures, canEdit, selectionRevision, theme.accent],
   );
   const axes = useMemo(() => result && spectrogramAxes(result, capture.centerFrequency), [result, capture.centerFrequency]);
   const markFromSpectrogram = useCallback(
@@ -151,7 +161,7 @@ function QuickLookView({ capture }: QuickLookProps) {
               )}
               {canEdit && figures && (
                 <p className="mt-1 text-xs text-muted" data-testid="marking-hint">
-                  Drag a box on the spectrogram to mark a new annotation; pick the zoom tool in its toolbar to zoom instead.
+                  Drag a box to mark a new annotation; the zoom tool in the plot's toolbar zooms instead.
                 </p>
               )}
             </PlotCard>
