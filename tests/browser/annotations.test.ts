@@ -84,7 +84,7 @@ describe.skipIf(!hasChromium)('capture annotations in a browser', { timeout: 180
     expect(await form.count()).toBe(0);
     const item = page.getByTestId('annotation-item');
     expect(await item.textContent()).toMatch(/Beacon burst.*from 12\.5 ms for 2 ms.*2\.4121 GHz to 2\.4131 GHz.*First beacon after power-up\./);
-    // Stored as SigMF core fields in samples and Hz (SigMF specification v1.2.0, annotation segment objects).
+    // Stored as SigMF core fields in samples and Hz (SigMF specification v1.2.0, annotation segment objects; from memory).
     expect(await stored()).toEqual([
       {
         'core:sample_start': 50_000,

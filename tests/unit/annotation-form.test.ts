@@ -2,7 +2,7 @@
  * The annotation editor's reading of typed text into a SigMF annotation: times or sample numbers
  * into samples, RF edges into Hz, each problem on its field; and where a server error lands.
  * Field names and their meaning follow the SigMF core namespace (SigMF specification v1.2.0,
- * "Annotation Segment Objects": core:sample_start, core:sample_count, core:freq_lower_edge and
+ * "Annotation Segment Objects", from memory: core:sample_start, core:sample_count, core:freq_lower_edge and
  * core:freq_upper_edge in Hz, core:label, core:comment).
  */
 import { describe, expect, it } from 'vitest';
