@@ -1,4 +1,4 @@
-import { useEffect, useRef, type ReactNode } from 'react';
+import { useEffect, useId, useRef, type ReactNode } from 'react';
 import { buttonSecondary } from '../ui';
 
 export interface ConfirmDialogProps {
@@ -23,6 +23,8 @@ const buttonDanger =
  */
 export function ConfirmDialog({ open, title, children, confirmLabel, busy, error, onConfirm, onCancel }: ConfirmDialogProps) {
   const ref = useRef<HTMLDialogElement>(null);
+  // Two dialogs on one page (capture and annotation delete) must not share a title id.
+  const titleId = useId();
   useEffect(() => {
     const dialog = ref.current;
     if (!dialog) return;
@@ -32,7 +34,7 @@ export function ConfirmDialog({ open, title, children, confirmLabel, busy, error
   return (
     <dialog
       ref={ref}
-      aria-labelledby="confirm-title"
+      aria-labelledby={titleId}
       onCancel={(event) => {
         event.preventDefault();
         if (!busy) onCancel();
@@ -40,7 +42,7 @@ export function ConfirmDialog({ open, title, children, confirmLabel, busy, error
       className="m-auto w-[min(32rem,calc(100vw-2rem))] rounded-lg border border-line bg-panel p-0 text-ink shadow-xl backdrop:bg-black/50"
     >
       <div className="p-5">
-        <h2 id="confirm-title" className="text-lg font-semibold">
+        <h2 id={titleId} className="text-lg font-semibold">
           {title}
         </h2>
         <div className="mt-2 space-y-2 text-sm text-muted">{children}</div>

@@ -1,18 +1,26 @@
-import { useEffect, useMemo, useState } from 'react';
+import { useCallback, useEffect, useMemo, useState } from 'react';
+import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
+import type { Config, Layout, PlotRelayoutEvent } from 'plotly.js-dist-min';
 import Plot, { PlotPlaceholder, preloadPlotly } from '../plots/Plot';
 import { usePlotTheme } from '../plots/plot-theme';
 import { Quantity } from '../Quantity';
-import { AnnotationsList } from './AnnotationsList';
+import { AnnotationsPanel, type EditingState } from './AnnotationsPanel';
 import { BalanceReport } from './BalanceReport';
+import { emptyAnnotationValues } from './annotation-form';
+import { selectionFromRelayout, selectionValues } from './annotation-selection';
 import type { QuickLookResult } from './quicklook-analysis';
-import { spectrogramFigure, spectrumFigure, traceFigure } from './quicklook-figures';
+import { spectrogramAxes, spectrogramFigure, spectrumFigure, traceFigure } from './quicklook-figures';
 import { readAnnotations, type Capture } from './types';
+import { useAnnotations } from './useAnnotations';
 import { useQuickLook } from './useQuickLook';
 import { formatQuantity } from '@/lib/units';
 
 export interface QuickLookProps {
-  capture: Pick<Capture, 'id' | 'datatype' | 'layout' | 'sampleRate' | 'sampleCount' | 'bytesPerSample' | 'centerFrequency' | 'annotations' | 'durationSeconds'>;
+  capture: Pick<Capture, 'id' | 'datatype' | 'layout' | 'sampleRate' | 'sampleCount' | 'bytesPerSample' | 'centerFrequency' | 'annotations' | 'durationSeconds' | 'permissions'>;
 }
+
+// Editors mark annotations with the box select tool, so the spectrogram keeps it in its toolbar.
+const MARKING_CONFIG: Partial<Config> = { modeBarButtonsToRemove: ['lasso2d'] };
 
 /** Plot height (CSS px): taller on wide screens, where the plots are also wider. */
 function plotHeight(): number {
@@ -21,16 +29,31 @@ function plotHeight(): number {
 
 /**
  * Quick look of a capture, computed in the browser by the engine on the head of the capture:
- * spectrum, spectrogram with annotations, I and Q against time, balance report.
+ * spectrum, spectrogram with annotations, I and Q against time, balance report. Its owner or an
+ * admin edits the annotations here, also by dragging a box on the spectrogram.
  * Client only: Plotly and the Web Worker need a browser.
  */
 export default function QuickLook({ capture }: QuickLookProps) {
+  const [client] = useState(() => new QueryClient({ defaultOptions: { queries: { retry: 1 } } }));
+  return (
+    <QueryClientProvider client={client}>
+      <QuickLookView capture={capture} />
+    </QueryClientProvider>
+  );
+}
+
+function QuickLookView({ capture }: QuickLookProps) {
   const state = useQuickLook(capture);
   // Plotly loads while the head is read and analysed, not after.
   useEffect(preloadPlotly, []);
   const [plotPx] = useState(plotHeight);
   const theme = usePlotTheme();
-  const annotations = useMemo(() => readAnnotations(capture.annotations), [capture.annotations]);
+  const canEdit = capture.permissions.update;
+  const store = useAnnotations(capture.id, capture.annotations);
+  const annotations = useMemo(() => readAnnotations(store.annotations), [store.annotations]);
+  const [editing, setEditing] = useState<EditingState | null>(null);
+  // Bumped to wipe a dragged box off the spectrogram once its form is closed.
+  const [selectionRevision, setSelectionRevision] = useState(0);
   const result = state.phase === 'done' ? state.result : null;
   const figures = useMemo(() => {
     if (!result) return null;
@@ -40,6 +63,40 @@ export default function QuickLook({ capture }: QuickLookProps) {
       trace: traceFigure(result, capture.layout, theme),
     };
   }, [result, capture.centerFrequency, capture.layout, annotations, theme]);
+  const spectrogramLayout = useMemo<Partial<Layout> | undefined>(
+    () =>
+      figures
+        ? {
+            ...figures.spectrogram.layout,
+            dragmode: canEdit ? 'select' : 'zoom',
+            selections: [],
+            // The box being marked stands apart from the white dotted boxes of saved annotations.
+            newselection: { line: { color: theme.accent, width: 2, dash: 'dash' } },
+            activeselection: { fillcolor: theme.accent, opacity: 0.12 },
+          }
+        : undefined,
+    // selectionRevision is a dependency only so that a new, empty selections list is drawn.
+    [figures, canEdit, selectionRevision, theme.accent],
+  );
+  const axes = useMemo(() => result && spectrogramAxes(result, capture.centerFrequency), [result, capture.centerFrequency]);
+  const markFromSpectrogram = useCallback(
+    (event: PlotRelayoutEvent) => {
+      const box = selectionFromRelayout(event as Record<string, unknown>);
+      const values = box && axes ? selectionValues(box, axes, capture.sampleRate) : null;
+      if (!values) return;
+      setEditing((open) => ({
+        // A box dragged while editing moves that annotation; otherwise it starts a new one.
+        index: open?.index ?? null,
+        values: { ...(open?.values ?? emptyAnnotationValues()), ...values },
+        key: Date.now(),
+      }));
+    },
+    [axes, capture.sampleRate],
+  );
+  const changeEditing = useCallback((next: EditingState | null) => {
+    setEditing(next);
+    if (next === null) setSelectionRevision((n) => n + 1);
+  }, []);
 
   const headDuration = state.headSamples / capture.sampleRate;
   const whole = state.headSamples >= capture.sampleCount;
@@ -90,9 +147,22 @@ export default function QuickLook({ capture }: QuickLookProps) {
           <div className="grid gap-4 xl:grid-cols-2">
             <PlotCard title="Spectrogram" note={result ? `${result.spectrogramFftSize}-point FFT, ${result.spectrogram.levels.length} rows, Hann window` : undefined}>
               {figures ? (
-                <Plot label="Spectrogram of the capture head" testId="spectrogram-plot" height={plotPx} {...figures.spectrogram} />
+                <Plot
+                  label="Spectrogram of the capture head"
+                  testId="spectrogram-plot"
+                  height={plotPx}
+                  data={figures.spectrogram.data}
+                  layout={spectrogramLayout}
+                  config={canEdit ? MARKING_CONFIG : undefined}
+                  onRelayout={canEdit ? markFromSpectrogram : undefined}
+                />
               ) : (
                 <PlotPlaceholder height={plotPx} text={state.phase === 'failed' ? 'No spectrogram.' : pending} />
+              )}
+              {canEdit && figures && (
+                <p className="mt-1 text-xs text-muted" data-testid="marking-hint">
+                  Drag a box to mark a new annotation; the zoom tool in the plot's toolbar zooms instead.
+                </p>
               )}
             </PlotCard>
             <PlotCard title={capture.layout === 'real' ? 'Signal against time' : 'I and Q against time'} note={result ? traceNote(result.trace.samplesPerColumn) : undefined}>
@@ -113,7 +183,16 @@ export default function QuickLook({ capture }: QuickLookProps) {
               <p className="mt-1">{state.phase === 'failed' ? 'Not available.' : pending}</p>
             </section>
           )}
-          <AnnotationsList annotations={annotations} sampleRate={capture.sampleRate} headSamples={state.headSamples} />
+          <AnnotationsPanel
+            raw={store.annotations}
+            capture={capture}
+            headSamples={state.headSamples}
+            canEdit={canEdit}
+            editing={editing}
+            onEditingChange={changeEditing}
+            save={store.save}
+            saving={store.saving}
+          />
         </div>
       </div>
     </section>

@@ -60,6 +60,13 @@ export interface CaptureChanges {
   annotations?: Record<string, unknown>[];
 }
 
+/** One capture as the API presents it; throws an Error carrying the API's message so TanStack Query shows it. */
+export async function fetchCapture(id: string): Promise<Capture> {
+  const result = await requestJson<Capture>('GET', `/api/captures/${encodeURIComponent(id)}`);
+  if (!result.ok) throw new Error(result.error.message);
+  return result.data;
+}
+
 export function updateCapture(id: string, changes: CaptureChanges): Promise<ApiResult<Capture>> {
   return requestJson<Capture>('PATCH', `/api/captures/${encodeURIComponent(id)}`, changes);
 }

@@ -6,6 +6,7 @@ import type { Data, Layout } from 'plotly.js-dist-min';
 import { axisScale, axisTitle, scaled } from '../plots/axes';
 import type { PlotTheme } from '../plots/plot-theme';
 import type { QuickLookResult } from './quicklook-analysis';
+import type { SpectrogramAxes } from './annotation-selection';
 import type { Annotation } from './types';
 import type { SampleType } from '@/dsp/types';
 
@@ -55,11 +56,26 @@ function percentile(levels: number[][], p: number): number {
   return all[Math.min(all.length - 1, Math.floor(p * all.length))];
 }
 
+/** Units of the spectrogram's axes, so a box dragged on it reads back in Hz and seconds. */
+export function spectrogramAxes(result: QuickLookResult, centerFrequency: number | null): SpectrogramAxes {
+  const axis = frequencyAxis(result, centerFrequency);
+  const freqs = result.spectrogram.frequencies;
+  const duration = result.samples / result.sampleRate;
+  return {
+    frequencyDivisor: axis.scale.divisor,
+    timeDivisor: axisScale(0, duration, 's').divisor,
+    frequencyLow: freqs[0] + axis.offset,
+    frequencyHigh: freqs[freqs.length - 1] + axis.offset,
+    duration,
+  };
+}
+
 /** Spectrogram as a heatmap (time up, frequency across) with annotations drawn as rectangles. */
 export function spectrogramFigure(result: QuickLookResult, centerFrequency: number | null, annotations: Annotation[], theme: PlotTheme): Figure {
   const axis = frequencyAxis(result, centerFrequency);
   const { spectrogram } = result;
   const duration = result.samples / result.sampleRate;
+  // One scale for drawing and for reading a dragged box back (spectrogramAxes).
   const timeScale = axisScale(0, duration, 's');
   const x = scaled(spectrogram.frequencies, axis.scale, axis.offset);
   const xLow = x[0];
