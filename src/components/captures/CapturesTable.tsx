@@ -28,13 +28,12 @@ const TYPED: ReadonlySet<keyof FilterValues> = new Set(['q', 'tag', 'minRate', '
 /** The captures list island: filters, sort and page live in the URL. */
 function CapturesTable({ initialState, initialList }: CapturesTableProps) {
   const queryClient = useQueryClient();
-  const { state, settled, update } = useUrlState(captureListCodec, initialState);
+  const urlState = useUrlState(captureListCodec, initialState);
+  const { state, settled, update } = urlState;
   const [toDelete, setToDelete] = useState<Capture[] | null>(null);
   const [deleting, setDeleting] = useState(false);
   const [deleteError, setDeleteError] = useState<string | null>(null);
   const [notice, setNotice] = useState<string | null>(null);
-  const params = useMemo(() => captureListParams(settled), [settled]);
-  const initialParams = useMemo(() => captureListParams(initialState), [initialState]);
 
   // Uploads and syntheses in other islands announce new captures.
   useEffect(() => {
@@ -53,15 +52,16 @@ function CapturesTable({ initialState, initialList }: CapturesTableProps) {
   );
   const sorting: SortingState = [{ id: state.sort, desc: state.desc }];
 
-  const { query, list, table, selected, clearSelection, setPageSize } = useServerTable({
+  const { query, params, list, table, selected, clearSelection, setPageSize } = useServerTable({
     queryKey: 'captures',
-    params,
+    urlState,
+    initialState,
+    initialList,
+    toParams: captureListParams,
     fetchList: fetchCaptureList,
-    initial: { params: initialParams, list: initialList },
     rowsOf: (page: CaptureList) => page.items,
     columns,
     getRowId: (capture) => capture.id,
-    paging: { page: state.page, pageSize: state.pageSize, onChange: (page, pageSize, mode) => update((current) => ({ ...current, page, pageSize }), mode) },
     sorting: {
       state: sorting,
       onChange: (next) => {

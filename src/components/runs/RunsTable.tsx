@@ -30,11 +30,10 @@ const ACTIVE_POLL_MS = 1_000;
 function RunsTable({ initialState, initialList, canSeeQueue }: RunsTableProps) {
   const queryClient = useQueryClient();
   const codec = useMemo(() => runListCodec(canSeeQueue), [canSeeQueue]);
-  const { state, settled, update } = useUrlState(codec, initialState);
+  const urlState = useUrlState(codec, initialState);
+  const { state, settled, update } = urlState;
   const [busyId, setBusyId] = useState<string | null>(null);
   const [notice, setNotice] = useState<{ tone: 'ok' | 'error'; text: string; href?: string } | null>(null);
-  const params = useMemo(() => runListParams(settled), [settled]);
-  const initialParams = useMemo(() => runListParams(initialState), [initialState]);
   // Durations of running runs tick each second; the page on screen says whether any is running.
   const [anyRunning, setAnyRunning] = useState(() => initialList.runs.some((run) => run.status === 'running'));
   const now = useClock(anyRunning);
@@ -66,13 +65,14 @@ function RunsTable({ initialState, initialList, canSeeQueue }: RunsTableProps) {
 
   const { query, list, table, selected, clearSelection, setPageSize } = useServerTable({
     queryKey: 'runs',
-    params,
+    urlState,
+    initialState,
+    initialList,
+    toParams: runListParams,
     fetchList: fetchRunList,
-    initial: { params: initialParams, list: initialList },
     rowsOf: (page: RunList) => page.runs,
     columns,
     getRowId: (run) => run.id,
-    paging: { page: state.page, pageSize: state.pageSize, onChange: (page, pageSize, mode) => update((current) => ({ ...current, page, pageSize }), mode) },
     canSelect: (run) => run.status === 'succeeded',
     // A comparison may gather runs from several pages, and live updates must not drop them.
     selectionAcrossPages: true,

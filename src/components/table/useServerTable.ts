@@ -3,10 +3,10 @@
  * on screen while the next loads), the server-rendered first page used without a request, paging
  * and sorting routed to the list's state, row selection, and a step back when a page has emptied.
  */
-import { useEffect, useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import { keepPreviousData, useQuery } from '@tanstack/react-query';
 import { getCoreRowModel, useReactTable, type ColumnDef, type RowSelectionState, type SortingState, type Updater } from '@tanstack/react-table';
-import type { HistoryMode } from './useUrlState';
+import type { UrlState } from './useUrlState';
 
 /** What a page of any list endpoint says about paging. */
 export interface PagedList {
@@ -16,19 +16,28 @@ export interface PagedList {
   pageSize: number;
 }
 
-export interface ServerTableOptions<Row, Params, List extends PagedList> {
+/** The paging part of a list's state. */
+export interface PageState {
+  /** 1-based. */
+  page: number;
+  /** Rows per page. */
+  pageSize: number;
+}
+
+export interface ServerTableOptions<Row, State extends PageState, Params, List extends PagedList> {
   /** First element of the query key; `['captures']` invalidates every page. */
   queryKey: string;
-  /** The request for the page on screen (changes of it fetch). */
-  params: Params;
+  /** The list's state in the URL; paging writes to it. */
+  urlState: UrlState<State>;
+  /** The state the server rendered `initialList` for. */
+  initialState: State;
+  initialList: List;
+  /** The list request for a state (a stable function: module level). */
+  toParams: (state: State) => Params;
   fetchList: (params: Params) => Promise<List>;
-  /** The page the server rendered and the request it answers. */
-  initial: { params: Params; list: List };
   rowsOf: (list: List) => Row[];
   columns: ColumnDef<Row, any>[];
   getRowId: (row: Row) => string;
-  /** Current page (1-based) and size (rows), and where changes go. */
-  paging: { page: number; pageSize: number; onChange: (page: number, pageSize: number, mode: HistoryMode) => void };
   /** Server-side sort, when the list has one. */
   sorting?: { state: SortingState; onChange: (next: SortingState) => void };
   canSelect: (row: Row) => boolean;
@@ -46,20 +55,24 @@ function resolve<T>(updater: Updater<T>, current: T): T {
 }
 
 /** Query, TanStack table and selection of one server-paged list. */
-export function useServerTable<Row, Params, List extends PagedList>(options: ServerTableOptions<Row, Params, List>) {
-  const { params, initial, paging } = options;
+export function useServerTable<Row, State extends PageState, Params, List extends PagedList>(options: ServerTableOptions<Row, State, Params, List>) {
+  const { urlState, toParams, initialList } = options;
+  const { state, update } = urlState;
+  const params = useMemo(() => toParams(urlState.settled), [toParams, urlState.settled]);
   const requestKey = JSON.stringify(params);
-  const isInitial = requestKey === JSON.stringify(initial.params);
+  const [initialKey] = useState(() => JSON.stringify(toParams(options.initialState)));
+  const isInitial = requestKey === initialKey;
+  const goTo = (page: number, pageSize: number, mode: 'push' | 'replace') => update((current) => ({ ...current, page, pageSize }), mode);
 
   const query = useQuery({
     queryKey: [options.queryKey, params],
     queryFn: () => options.fetchList(params),
     placeholderData: keepPreviousData,
-    initialData: isInitial ? initial.list : undefined,
+    initialData: isInitial ? initialList : undefined,
     initialDataUpdatedAt: isInitial ? Date.now() : undefined,
     refetchInterval: options.refetchInterval ? (q) => options.refetchInterval!(q.state.data) : undefined,
   });
-  const list = query.data ?? initial.list;
+  const list = query.data ?? initialList;
   const rows = options.rowsOf(list);
 
   // Selection is stored with the request it was made on, so another request starts empty.
@@ -67,7 +80,7 @@ export function useServerTable<Row, Params, List extends PagedList>(options: Ser
   const [picked, setPicked] = useState<{ scope: string; ids: RowSelectionState; rows: Record<string, Row> }>({ scope, ids: {}, rows: {} });
   const current = picked.scope === scope ? picked : { scope, ids: {}, rows: {} };
 
-  const pagination = { pageIndex: paging.page - 1, pageSize: paging.pageSize };
+  const pagination = { pageIndex: state.page - 1, pageSize: state.pageSize };
   const table = useReactTable({
     data: rows,
     columns: options.columns,
@@ -82,7 +95,7 @@ export function useServerTable<Row, Params, List extends PagedList>(options: Ser
     state: { pagination, rowSelection: current.ids, ...(options.sorting ? { sorting: options.sorting.state } : {}) },
     onPaginationChange: (updater) => {
       const next = resolve(updater, pagination);
-      paging.onChange(next.pageIndex + 1, next.pageSize, 'push');
+      goTo(next.pageIndex + 1, next.pageSize, 'push');
     },
     onSortingChange: (updater) => options.sorting?.onChange(resolve(updater, options.sorting.state)),
     onRowSelectionChange: (updater) => {
@@ -100,12 +113,14 @@ export function useServerTable<Row, Params, List extends PagedList>(options: Ser
   const lastPage = Math.max(1, Math.ceil(list.total / list.pageSize));
   const pastEnd = !query.isPlaceholderData && rows.length === 0 && list.page > lastPage;
   useEffect(() => {
-    if (pastEnd) paging.onChange(lastPage, paging.pageSize, 'replace');
+    if (pastEnd) goTo(lastPage, state.pageSize, 'replace');
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [pastEnd, lastPage]);
 
   return {
     query,
+    /** The list request on screen. */
+    params,
     list,
     rows,
     table,
@@ -113,6 +128,6 @@ export function useServerTable<Row, Params, List extends PagedList>(options: Ser
     selected: Object.values(current.rows),
     clearSelection: () => setPicked({ scope, ids: {}, rows: {} }),
     /** A new page size starts again at page 1. */
-    setPageSize: (pageSize: number) => paging.onChange(1, pageSize, 'push'),
+    setPageSize: (pageSize: number) => goTo(1, pageSize, 'push'),
   };
 }
