@@ -126,7 +126,8 @@ function CapturesTable({ initialState, initialList }: CapturesTableProps) {
         error={query.isError ? (query.error as Error) : null}
         pageSizes={CAPTURE_PAGE_SIZES}
         onPageSize={setPageSize}
-        cellClass="px-2.5 py-2 align-top"
+        cellPadding="px-2.5 py-2"
+        cellAlign="top"
         rowAttributes={(capture) => ({ 'data-capture-id': capture.id })}
       />
 

@@ -173,7 +173,8 @@ function RunsTable({ initialState, initialList, canSeeQueue }: RunsTableProps) {
         error={query.isError ? (query.error as Error) : null}
         pageSizes={RUN_PAGE_SIZES}
         onPageSize={setPageSize}
-        cellClass="px-3 py-2 align-middle"
+        cellPadding="px-3 py-2"
+        cellAlign="middle"
         rowAttributes={(run) => ({ 'data-run-id': run.id, 'data-status': run.status })}
       />
     </section>

@@ -18,8 +18,10 @@ export interface ServerTableViewProps<T> {
   error: Error | null;
   pageSizes: readonly number[];
   onPageSize: (size: number) => void;
-  /** Padding and vertical alignment of cells. */
-  cellClass: string;
+  /** Padding of header and body cells (Tailwind classes). */
+  cellPadding: string;
+  /** Vertical alignment of body cells: top for rows of wrapped text, middle for one-line rows. */
+  cellAlign: 'top' | 'middle';
   /** data-* attributes of a row, for tests and styles. */
   rowAttributes: (row: T) => Record<`data-${string}`, string>;
 }
@@ -55,6 +57,7 @@ function BodyRow<T>({ row, cellClass, attributes }: { row: Row<T>; cellClass: st
 /** A server-paged table: load error, header (sortable where the table sorts), rows or the empty message, pager. */
 export function ServerTableView<T>(props: ServerTableViewProps<T>) {
   const { table, list } = props;
+  const cellClass = `${props.cellPadding} ${props.cellAlign === 'top' ? 'align-top' : 'align-middle'}`;
   const rows = table.getRowModel().rows;
   return (
     <>
@@ -77,7 +80,7 @@ export function ServerTableView<T>(props: ServerTableViewProps<T>) {
                       key={header.id}
                       scope="col"
                       aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
-                      className={props.cellClass.replace(/align-\S+/, '') + ' font-medium' + (isNumeric(header.column.columnDef.meta) ? ' text-right' : '')}
+                      className={props.cellPadding + ' font-medium' + (isNumeric(header.column.columnDef.meta) ? ' text-right' : '')}
                     >
                       {header.column.getCanSort() ? <SortableHeader header={header} /> : flexRender(header.column.columnDef.header, header.getContext())}
                     </th>
@@ -88,7 +91,7 @@ export function ServerTableView<T>(props: ServerTableViewProps<T>) {
           </thead>
           <tbody className={props.refreshing ? 'opacity-70' : undefined}>
             {rows.map((row) => (
-              <BodyRow key={row.id} row={row} cellClass={props.cellClass} attributes={props.rowAttributes(row.original)} />
+              <BodyRow key={row.id} row={row} cellClass={cellClass} attributes={props.rowAttributes(row.original)} />
             ))}
             {rows.length === 0 && (
               <tr>
