@@ -52,7 +52,7 @@ function CapturesTable({ initialState, initialList }: CapturesTableProps) {
   );
   const sorting: SortingState = [{ id: state.sort, desc: state.desc }];
 
-  const { query, params, list, table, selected, clearSelection, setPageSize } = useServerTable({
+  const { query, params, list, selected, clearSelection, view } = useServerTable({
     queryKey: 'captures',
     urlState,
     initialState,
@@ -117,15 +117,11 @@ function CapturesTable({ initialState, initialList }: CapturesTableProps) {
       )}
 
       <ServerTableView
-        table={table}
-        list={list}
+        {...view}
         noun="captures"
         caption={`Captures, sorted by ${params.sort} ${params.order === 'asc' ? 'ascending' : 'descending'}`}
         empty={hasFilters(settled.filters) ? 'No capture matches these filters.' : 'No captures yet: upload a recording or synthesize one.'}
-        refreshing={query.isPlaceholderData}
-        error={query.isError ? (query.error as Error) : null}
         pageSizes={CAPTURE_PAGE_SIZES}
-        onPageSize={setPageSize}
         cellPadding="px-2.5 py-2"
         cellAlign="top"
         rowAttributes={(capture) => ({ 'data-capture-id': capture.id })}

@@ -63,7 +63,7 @@ function RunsTable({ initialState, initialList, canSeeQueue }: RunsTableProps) {
     [busyId, now],
   );
 
-  const { query, list, table, selected, clearSelection, setPageSize } = useServerTable({
+  const { list, selected, clearSelection, view } = useServerTable({
     queryKey: 'runs',
     urlState,
     initialState,
@@ -162,17 +162,13 @@ function RunsTable({ initialState, initialList, canSeeQueue }: RunsTableProps) {
       )}
 
       <ServerTableView
-        table={table}
-        list={list}
+        {...view}
         noun="runs"
         caption="Runs, newest first"
         empty={
           settled.status ? 'No run has this status.' : 'No runs yet. Open a chain and choose “Run on captures…”, or open a capture and run a chain on it.'
         }
-        refreshing={query.isPlaceholderData}
-        error={query.isError ? (query.error as Error) : null}
         pageSizes={RUN_PAGE_SIZES}
-        onPageSize={setPageSize}
         cellPadding="px-3 py-2"
         cellAlign="middle"
         rowAttributes={(run) => ({ 'data-run-id': run.id, 'data-status': run.status })}

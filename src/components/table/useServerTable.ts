@@ -127,7 +127,14 @@ export function useServerTable<Row, State extends PageState, Params, List extend
     /** Selected rows: on screen, or kept across pages with `selectionAcrossPages`. */
     selected: Object.values(current.rows),
     clearSelection: () => setPicked({ scope, ids: {}, rows: {} }),
-    /** A new page size starts again at page 1. */
-    setPageSize: (pageSize: number) => goTo(1, pageSize, 'push'),
+    /** The props of ServerTableView that come from the query and the table. */
+    view: {
+      table,
+      list,
+      refreshing: query.isPlaceholderData,
+      error: query.isError ? (query.error as Error) : null,
+      /** A new page size starts again at page 1. */
+      onPageSize: (pageSize: number) => goTo(1, pageSize, 'push'),
+    },
   };
 }
