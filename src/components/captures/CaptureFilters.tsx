@@ -1,32 +1,8 @@
 import { useId } from 'react';
 import { SIGMF_DATATYPES } from '@/dsp/formats/datatype';
-import { parseQuantity } from '@/lib/units';
 import { buttonSmall, input } from '../ui';
+import { emptyFilters, hasFilters, parseRate, type FilterValues } from './list-state';
 import { LAYOUT_LABELS } from './types';
-
-/** Filter inputs as typed (rates are text with SI prefixes until parsed). */
-export interface FilterValues {
-  q: string;
-  owner: string;
-  tag: string;
-  layout: string;
-  datatype: string;
-  minRate: string;
-  maxRate: string;
-}
-
-export const emptyFilters: FilterValues = { q: '', owner: '', tag: '', layout: '', datatype: '', minRate: '', maxRate: '' };
-
-const RATE_ALIASES = ['sps', 'S/s'];
-
-/** A typed rate bound in Hz: undefined when empty, or the parser's complaint. */
-export function parseRate(text: string): { value?: number; error?: string } {
-  if (text.trim() === '') return {};
-  const parsed = parseQuantity(text, 'Hz', { aliases: RATE_ALIASES });
-  if (!parsed.ok) return { error: parsed.message };
-  if (parsed.value < 0) return { error: 'must be 0 or more' };
-  return { value: parsed.value };
-}
 
 const small = input.replace('px-3 py-2', 'px-2.5 py-1.5');
 
@@ -36,7 +12,7 @@ export function CaptureFilters({ values, onChange }: { values: FilterValues; onC
   const set = (key: keyof FilterValues) => (event: { target: { value: string } }) => onChange({ ...values, [key]: event.target.value });
   const minRate = parseRate(values.minRate);
   const maxRate = parseRate(values.maxRate);
-  const active = Object.values(values).some((v) => v !== '');
+  const active = hasFilters(values);
   return (
     <fieldset className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4 2xl:grid-cols-[minmax(14rem,2fr)_repeat(6,minmax(0,1fr))_auto]" aria-label="Filter captures">
       <legend className="sr-only">Filter captures</legend>

@@ -1,79 +1,39 @@
 import { useEffect, useMemo, useState } from 'react';
-import { QueryClient, QueryClientProvider, keepPreviousData, useQuery, useQueryClient } from '@tanstack/react-query';
-import { flexRender, getCoreRowModel, useReactTable, type RowSelectionState, type SortingState } from '@tanstack/react-table';
+import { useQueryClient } from '@tanstack/react-query';
+import type { SortingState } from '@tanstack/react-table';
 import { buttonSmall } from '../ui';
-import { TablePager } from '../TablePager';
-import { bulkDeleteCaptures, CAPTURES_CHANGED, deleteCapture, fetchCaptureList, type CaptureListParams } from './api';
-import { captureColumns, SORTABLE } from './capture-columns';
-import { CaptureFilters, emptyFilters, parseRate, type FilterValues } from './CaptureFilters';
+import { ServerTableView } from '../table/ServerTableView';
+import { TableNotice } from '../table/TableNotice';
+import { useServerTable } from '../table/useServerTable';
+import { useUrlState } from '../table/useUrlState';
+import { withQueryClient } from '../table/withQueryClient';
+import { bulkDeleteCaptures, CAPTURES_CHANGED, deleteCapture, fetchCaptureList } from './api';
+import { captureColumns } from './capture-columns';
+import { CaptureFilters } from './CaptureFilters';
 import { ConfirmDialog } from './ConfirmDialog';
+import { CAPTURE_PAGE_SIZES, captureListCodec, captureListParams, hasFilters, type CaptureListState, type FilterValues } from './list-state';
 import { StorageUsageBar } from './StorageUsageBar';
 import type { Capture, CaptureList } from './types';
 
 export interface CapturesTableProps {
-  /** The first page as the server rendered it (default filters), shown before any request. */
+  /** The list state the page's URL asked for (parsed on the server with the same codec). */
+  initialState: CaptureListState;
+  /** The page of captures the server rendered for that state, shown before any request. */
   initialList: CaptureList;
 }
 
-/** The captures list island: its own query cache, so the page needs no provider around it. */
-export default function CapturesTable(props: CapturesTableProps) {
-  const [client] = useState(() => new QueryClient({ defaultOptions: { queries: { staleTime: 10_000, retry: 1 } } }));
-  return (
-    <QueryClientProvider client={client}>
-      <CapturesTableBody {...props} />
-    </QueryClientProvider>
-  );
-}
+// Filter fields typed letter by letter: they rewrite the current history entry once typing pauses.
+const TYPED: ReadonlySet<keyof FilterValues> = new Set(['q', 'tag', 'minRate', 'maxRate']);
 
-const PAGE_SIZES = [10, 25, 50, 100];
-
-function useDebounced<T>(value: T, ms: number): T {
-  const [settled, setSettled] = useState(value);
-  useEffect(() => {
-    const timer = setTimeout(() => setSettled(value), ms);
-    return () => clearTimeout(timer);
-  }, [value, ms]);
-  return settled;
-}
-
-function CapturesTableBody({ initialList }: CapturesTableProps) {
+/** The captures list island: filters, sort and page live in the URL. */
+function CapturesTable({ initialState, initialList }: CapturesTableProps) {
   const queryClient = useQueryClient();
-  const [filters, setFilters] = useState<FilterValues>(emptyFilters);
-  const [sorting, setSorting] = useState<SortingState>([{ id: 'createdAt', desc: true }]);
-  const [pagination, setPagination] = useState({ pageIndex: 0, pageSize: initialList.pageSize });
-  const [selection, setSelection] = useState<RowSelectionState>({});
+  const urlState = useUrlState(captureListCodec, initialState);
+  const { state, settled, update } = urlState;
   const [toDelete, setToDelete] = useState<Capture[] | null>(null);
   const [deleting, setDeleting] = useState(false);
   const [deleteError, setDeleteError] = useState<string | null>(null);
   const [notice, setNotice] = useState<string | null>(null);
-  const typed = useDebounced(filters, 300);
-
-  const params = useMemo<CaptureListParams>(() => {
-    const sort = sorting[0];
-    return {
-      q: typed.q.trim() || undefined,
-      owner: typed.owner || undefined,
-      tag: typed.tag.trim() || undefined,
-      layout: typed.layout || undefined,
-      datatype: typed.datatype || undefined,
-      minRate: parseRate(typed.minRate).value,
-      maxRate: parseRate(typed.maxRate).value,
-      sort: (sort && SORTABLE.has(sort.id) ? sort.id : 'createdAt') as CaptureListParams['sort'],
-      order: sort?.desc === false ? 'asc' : 'desc',
-      page: pagination.pageIndex + 1,
-      pageSize: pagination.pageSize,
-    };
-  }, [typed, sorting, pagination]);
-  const isDefault = params.page === 1 && params.pageSize === initialList.pageSize && params.sort === 'createdAt' && params.order === 'desc' && Object.values(typed).every((v) => v === '');
-
-  const query = useQuery({
-    queryKey: ['captures', params],
-    queryFn: () => fetchCaptureList(params),
-    placeholderData: keepPreviousData,
-    initialData: isDefault ? initialList : undefined,
-    initialDataUpdatedAt: isDefault ? Date.now() : undefined,
-  });
-  const list = query.data ?? initialList;
 
   // Uploads and syntheses in other islands announce new captures.
   useEffect(() => {
@@ -82,37 +42,35 @@ function CapturesTableBody({ initialList }: CapturesTableProps) {
     return () => window.removeEventListener(CAPTURES_CHANGED, refresh);
   }, [queryClient]);
 
-  const changeFilters = (next: FilterValues) => {
-    setFilters(next);
-    setPagination((p) => ({ ...p, pageIndex: 0 }));
-    setSelection({});
+  const changeFilters = (filters: FilterValues) => {
+    const typed = (Object.keys(filters) as (keyof FilterValues)[]).filter((key) => filters[key] !== state.filters[key]).every((key) => TYPED.has(key));
+    update((current) => ({ ...current, filters, page: 1 }), typed ? 'replace' : 'push');
   };
   const columns = useMemo(
-    () => captureColumns({ onDelete: (capture) => setToDelete([capture]), onTag: (tag) => changeFilters({ ...filters, tag }) }),
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-    [filters],
+    () => captureColumns({ onDelete: (capture) => setToDelete([capture]), onTag: (tag) => update((current) => ({ ...current, filters: { ...current.filters, tag }, page: 1 }), 'push') }),
+    [update],
   );
+  const sorting: SortingState = [{ id: state.sort, desc: state.desc }];
 
-  const table = useReactTable({
-    data: list.items,
+  const { query, params, list, selected, clearSelection, view } = useServerTable({
+    queryKey: 'captures',
+    urlState,
+    initialState,
+    initialList,
+    toParams: captureListParams,
+    fetchList: fetchCaptureList,
+    rowsOf: (page: CaptureList) => page.items,
     columns,
-    getRowId: (row) => row.id,
-    getCoreRowModel: getCoreRowModel(),
-    manualSorting: true,
-    manualPagination: true,
-    rowCount: list.total,
-    enableSortingRemoval: false,
-    enableRowSelection: (row) => row.original.permissions.delete,
-    state: { sorting, pagination, rowSelection: selection },
-    onSortingChange: (updater) => {
-      setSorting(updater);
-      setPagination((p) => ({ ...p, pageIndex: 0 }));
+    getRowId: (capture) => capture.id,
+    sorting: {
+      state: sorting,
+      onChange: (next) => {
+        const first = next[0];
+        if (first) update((current) => ({ ...current, sort: first.id as CaptureListState['sort'], desc: first.desc, page: 1 }), 'push');
+      },
     },
-    onPaginationChange: setPagination,
-    onRowSelectionChange: setSelection,
+    canSelect: (capture) => capture.permissions.delete,
   });
-
-  const selected = list.items.filter((c) => selection[c.id]);
 
   async function confirmDelete() {
     if (!toDelete) return;
@@ -131,15 +89,14 @@ function CapturesTableBody({ initialList }: CapturesTableProps) {
       setNotice(`Deleted ${result.data.deleted.length} ${result.data.deleted.length === 1 ? 'capture' : 'captures'}${refused ? `; ${refused} refused (not yours, or already gone)` : ''}.`);
     }
     setToDelete(null);
-    setSelection({});
+    clearSelection();
     await queryClient.invalidateQueries({ queryKey: ['captures'] });
   }
-
 
   return (
     <section aria-label="Captures" className="space-y-4" data-testid="captures-table" data-loading={query.isFetching || undefined}>
       <div className="rounded-lg border border-line bg-panel p-4">
-        <CaptureFilters values={filters} onChange={changeFilters} />
+        <CaptureFilters values={state.filters} onChange={changeFilters} />
         <div className="mt-4 flex flex-wrap items-center gap-x-6 gap-y-3 border-t border-line pt-3">
           <StorageUsageBar usage={list.usage} />
           <div className="flex items-center gap-3 text-sm">
@@ -154,88 +111,20 @@ function CapturesTableBody({ initialList }: CapturesTableProps) {
       </div>
 
       {notice && (
-        <p role="status" className="flex items-center justify-between rounded-md border border-ok/40 bg-ok/10 px-3 py-2 text-sm text-ok">
+        <TableNotice tone="ok" onDismiss={() => setNotice(null)}>
           {notice}
-          <button type="button" className="text-xs underline" onClick={() => setNotice(null)}>
-            Dismiss
-          </button>
-        </p>
-      )}
-      {query.isError && (
-        <p role="alert" className="rounded-md border border-danger/40 bg-danger/10 px-3 py-2 text-sm text-danger">
-          The list could not be loaded: {(query.error as Error).message}
-        </p>
+        </TableNotice>
       )}
 
-      {/* relative: the header's sr-only text is absolutely placed and must stay inside the scroll box. */}
-      <div className="relative overflow-x-auto rounded-lg border border-line bg-panel">
-        <table className="w-full whitespace-nowrap text-sm">
-          <caption className="sr-only">Captures, sorted by {params.sort} {params.order === 'asc' ? 'ascending' : 'descending'}</caption>
-          <thead className="border-b border-line text-left text-xs uppercase tracking-wide text-muted">
-            {table.getHeaderGroups().map((group) => (
-              <tr key={group.id}>
-                {group.headers.map((header) => {
-                  const sortable = SORTABLE.has(header.column.id);
-                  const sorted = header.column.getIsSorted();
-                  const numeric = (header.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric;
-                  return (
-                    <th
-                      key={header.id}
-                      scope="col"
-                      aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
-                      className={'px-2.5 py-2 font-medium ' + (numeric ? 'text-right' : '')}
-                    >
-                      {sortable ? (
-                        <button type="button" onClick={header.column.getToggleSortingHandler()} className="inline-flex items-center gap-1 uppercase hover:text-ink">
-                          {flexRender(header.column.columnDef.header, header.getContext())}
-                          <span aria-hidden="true" className={sorted ? 'text-accent' : 'opacity-40'}>
-                            {sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}
-                          </span>
-                        </button>
-                      ) : (
-                        flexRender(header.column.columnDef.header, header.getContext())
-                      )}
-                    </th>
-                  );
-                })}
-              </tr>
-            ))}
-          </thead>
-          <tbody className={query.isFetching && !query.isLoading ? 'opacity-70' : undefined}>
-            {table.getRowModel().rows.map((row) => (
-              <tr key={row.id} className={'border-b border-line last:border-b-0 ' + (row.getIsSelected() ? 'bg-accent/5' : 'hover:bg-surface')} data-capture-id={row.id}>
-                {row.getVisibleCells().map((cell) => {
-                  const numeric = (cell.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric;
-                  return (
-                    <td key={cell.id} className={'px-2.5 py-2 align-top ' + (numeric ? 'text-right' : '')}>
-                      {flexRender(cell.column.columnDef.cell, cell.getContext())}
-                    </td>
-                  );
-                })}
-              </tr>
-            ))}
-            {list.items.length === 0 && (
-              <tr>
-                <td colSpan={columns.length} className="px-3 py-10 text-center text-muted">
-                  {Object.values(filters).some((v) => v !== '') ? 'No capture matches these filters.' : 'No captures yet: upload a recording or synthesize one.'}
-                </td>
-              </tr>
-            )}
-          </tbody>
-        </table>
-      </div>
-
-      <TablePager
+      <ServerTableView
+        {...view}
         noun="captures"
-        page={list.page}
-        pageSize={list.pageSize}
-        total={list.total}
-        pageSizes={PAGE_SIZES}
-        onPageSize={(pageSize) => setPagination({ pageIndex: 0, pageSize })}
-        canPrevious={table.getCanPreviousPage()}
-        canNext={table.getCanNextPage()}
-        onPrevious={() => table.previousPage()}
-        onNext={() => table.nextPage()}
+        caption={`Captures, sorted by ${params.sort} ${params.order === 'asc' ? 'ascending' : 'descending'}`}
+        empty={hasFilters(settled.filters) ? 'No capture matches these filters.' : 'No captures yet: upload a recording or synthesize one.'}
+        pageSizes={CAPTURE_PAGE_SIZES}
+        cellPadding="px-2.5 py-2"
+        cellAlign="top"
+        rowAttributes={(capture) => ({ 'data-capture-id': capture.id })}
       />
 
       <ConfirmDialog
@@ -260,3 +149,5 @@ function CapturesTableBody({ initialList }: CapturesTableProps) {
     </section>
   );
 }
+
+export default withQueryClient(CapturesTable, 10_000);

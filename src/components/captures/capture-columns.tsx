@@ -1,6 +1,7 @@
 /**
  * Columns of the captures table. Sorting happens on the server, so only the columns the list
- * endpoint sorts by (name, created, size, sample rate) offer it.
+ * endpoint sorts by (name, created, size, sample rate) offer it; a sortable column's id is the
+ * endpoint's sort key.
  */
 import { createColumnHelper, type ColumnDef } from '@tanstack/react-table';
 import { Quantity } from '../Quantity';
@@ -14,9 +15,6 @@ export interface RowActions {
   onDelete: (capture: Capture) => void;
   onTag: (tag: string) => void;
 }
-
-/** Column ids the list endpoint can sort by; the id is the endpoint's sort key. */
-export const SORTABLE = new Set(['name', 'createdAt', 'byteSize', 'sampleRate']);
 
 export function captureColumns(actions: RowActions): ColumnDef<Capture, any>[] {
   return [
@@ -60,9 +58,9 @@ export function captureColumns(actions: RowActions): ColumnDef<Capture, any>[] {
         </div>
       ),
     }),
-    column.accessor((c) => c.owner.name, { id: 'owner', header: 'Owner', cell: ({ getValue }) => <span className="block min-w-[5rem] whitespace-normal">{getValue()}</span> }),
-    column.accessor('layout', { header: 'Layout', cell: ({ getValue }) => <span className="block min-w-[5rem] whitespace-normal">{LAYOUT_LABELS[getValue() as Capture['layout']]}</span> }),
-    column.accessor('datatype', { header: 'Datatype', cell: ({ getValue }) => <span className="font-mono text-xs">{getValue()}</span> }),
+    column.accessor((c) => c.owner.name, { id: 'owner', header: 'Owner', enableSorting: false, cell: ({ getValue }) => <span className="block min-w-[5rem] whitespace-normal">{getValue()}</span> }),
+    column.accessor('layout', { header: 'Layout', enableSorting: false, cell: ({ getValue }) => <span className="block min-w-[5rem] whitespace-normal">{LAYOUT_LABELS[getValue() as Capture['layout']]}</span> }),
+    column.accessor('datatype', { header: 'Datatype', enableSorting: false, cell: ({ getValue }) => <span className="font-mono text-xs">{getValue()}</span> }),
     column.accessor('sampleRate', { header: 'Sample rate', cell: ({ getValue }) => <Quantity value={getValue()} unit="sps" />, meta: { numeric: true } }),
     column.accessor('centerFrequency', {
       header: 'Centre freq.',
@@ -70,7 +68,7 @@ export function captureColumns(actions: RowActions): ColumnDef<Capture, any>[] {
       cell: ({ getValue }) => (getValue() === null ? <span className="text-muted">—</span> : <Quantity value={getValue()} unit="Hz" significant={6} />),
       meta: { numeric: true },
     }),
-    column.accessor('durationSeconds', { header: 'Duration', cell: ({ getValue }) => <Quantity value={getValue()} unit="s" />, meta: { numeric: true } }),
+    column.accessor('durationSeconds', { header: 'Duration', enableSorting: false, cell: ({ getValue }) => <Quantity value={getValue()} unit="s" />, meta: { numeric: true } }),
     column.accessor('byteSize', { header: 'Size', cell: ({ getValue }) => <Quantity value={getValue()} unit="B" />, meta: { numeric: true } }),
     column.accessor('tags', {
       header: 'Tags',

@@ -1,70 +1,41 @@
-import { useMemo, useState } from 'react';
-import { QueryClient, QueryClientProvider, keepPreviousData, useQuery, useQueryClient } from '@tanstack/react-query';
-import { flexRender, getCoreRowModel, useReactTable, type RowSelectionState } from '@tanstack/react-table';
+import { useEffect, useMemo, useState } from 'react';
+import { useQueryClient } from '@tanstack/react-query';
 import { buttonPrimary } from '../ui';
-import { TablePager } from '../TablePager';
-import { cancelRun, fetchRunList, retryRun, type RunListParams } from './api';
+import { ServerTableView } from '../table/ServerTableView';
+import { TableNotice } from '../table/TableNotice';
+import { useServerTable } from '../table/useServerTable';
+import { useUrlState } from '../table/useUrlState';
+import { withQueryClient } from '../table/withQueryClient';
+import { cancelRun, fetchRunList, retryRun } from './api';
 import { shortId } from './format';
 import { useClock } from './hooks';
+import { RUN_PAGE_SIZES, runListCodec, runListParams, STATUS_FILTERS, type RunListState } from './list-state';
 import { runColumns } from './run-columns';
 import { isActive, type Run, type RunList } from './types';
 
 export interface RunsTableProps {
-  /** The first page as the server rendered it (the viewer's visible runs), shown before any request. */
+  /** The list state the page's URL asked for (parsed on the server with the same codec). */
+  initialState: RunListState;
+  /** The page of runs the server rendered for that state, shown before any request. */
   initialList: RunList;
   /** Admins may switch to the whole queue (every user's runs). */
   canSeeQueue: boolean;
 }
 
-/** The runs list island: its own query cache, so the page needs no provider around it. */
-export default function RunsTable(props: RunsTableProps) {
-  const [client] = useState(() => new QueryClient({ defaultOptions: { queries: { staleTime: 2_000, retry: 1 } } }));
-  return (
-    <QueryClientProvider client={client}>
-      <RunsTableBody {...props} />
-    </QueryClientProvider>
-  );
-}
-
 // The list is polled while a run is queued or running, rather than one event stream per run:
 // a browser keeps at most six connections per host, and a busy queue would use them all up.
 const ACTIVE_POLL_MS = 1_000;
-const PAGE_SIZES = [25, 50, 100];
-const STATUS_FILTERS = [
-  { value: '', label: 'Every status' },
-  { value: 'queued,running', label: 'Queued or running' },
-  { value: 'succeeded', label: 'Succeeded' },
-  { value: 'failed', label: 'Failed' },
-  { value: 'cancelled', label: 'Cancelled' },
-];
 
-function RunsTableBody({ initialList, canSeeQueue }: RunsTableProps) {
+/** The runs list island: status filter, queue switch and page live in the URL. */
+function RunsTable({ initialState, initialList, canSeeQueue }: RunsTableProps) {
   const queryClient = useQueryClient();
-  const [all, setAll] = useState(false);
-  const [status, setStatus] = useState('');
-  const [pagination, setPagination] = useState({ pageIndex: 0, pageSize: initialList.pageSize });
-  const [selection, setSelection] = useState<RowSelectionState>({});
-  // Selected runs are kept whole, so a selection survives paging and live updates.
-  const [selectedRuns, setSelectedRuns] = useState<Record<string, Run>>({});
+  const codec = useMemo(() => runListCodec(canSeeQueue), [canSeeQueue]);
+  const urlState = useUrlState(codec, initialState);
+  const { state, settled, update } = urlState;
   const [busyId, setBusyId] = useState<string | null>(null);
   const [notice, setNotice] = useState<{ tone: 'ok' | 'error'; text: string; href?: string } | null>(null);
-
-  const params = useMemo<RunListParams>(
-    () => ({ all, status: status || undefined, page: pagination.pageIndex + 1, pageSize: pagination.pageSize }),
-    [all, status, pagination],
-  );
-  const isDefault = !all && !status && params.page === 1 && params.pageSize === initialList.pageSize;
-
-  const query = useQuery({
-    queryKey: ['runs', params],
-    queryFn: () => fetchRunList(params),
-    placeholderData: keepPreviousData,
-    initialData: isDefault ? initialList : undefined,
-    initialDataUpdatedAt: isDefault ? Date.now() : undefined,
-    refetchInterval: (q) => (q.state.data?.runs.some((run) => isActive(run.status)) ? ACTIVE_POLL_MS : false),
-  });
-  const list = query.data ?? initialList;
-  const anyRunning = list.runs.some((run) => run.status === 'running');
+  // Durations of running runs tick each second; the page on screen says whether any is running.
+  const [anyRunning, setAnyRunning] = useState(() => initialList.runs.some((run) => run.status === 'running'));
   const now = useClock(anyRunning);
 
   async function act(run: Run, action: 'cancel' | 'retry') {
@@ -92,28 +63,23 @@ function RunsTableBody({ initialList, canSeeQueue }: RunsTableProps) {
     [busyId, now],
   );
 
-  const table = useReactTable({
-    data: list.runs,
+  const { list, selected, clearSelection, view } = useServerTable({
+    queryKey: 'runs',
+    urlState,
+    initialState,
+    initialList,
+    toParams: runListParams,
+    fetchList: fetchRunList,
+    rowsOf: (page: RunList) => page.runs,
     columns,
-    getRowId: (row) => row.id,
-    getCoreRowModel: getCoreRowModel(),
-    manualPagination: true,
-    rowCount: list.total,
-    enableRowSelection: (row) => row.original.status === 'succeeded',
-    state: { pagination, rowSelection: selection },
-    onPaginationChange: setPagination,
-    onRowSelectionChange: (updater) => {
-      const next = typeof updater === 'function' ? updater(selection) : updater;
-      setSelection(next);
-      setSelectedRuns((kept) => {
-        const out: Record<string, Run> = {};
-        for (const id of Object.keys(next)) if (next[id]) out[id] = kept[id] ?? list.runs.find((run) => run.id === id)!;
-        return out;
-      });
-    },
+    getRowId: (run) => run.id,
+    canSelect: (run) => run.status === 'succeeded',
+    // A comparison may gather runs from several pages, and live updates must not drop them.
+    selectionAcrossPages: true,
+    refetchInterval: (page) => (page?.runs.some((run) => isActive(run.status)) ? ACTIVE_POLL_MS : false),
   });
+  useEffect(() => setAnyRunning(list.runs.some((run) => run.status === 'running')), [list]);
 
-  const selected = Object.values(selectedRuns).filter(Boolean);
   const compareHref = `/runs/compare?ids=${selected.map((run) => encodeURIComponent(run.id)).join(',')}`;
   const active = list.runs.filter((run) => isActive(run.status)).length;
 
@@ -124,11 +90,8 @@ function RunsTableBody({ initialList, canSeeQueue }: RunsTableProps) {
           <span className="text-muted">Show</span>
           <select
             className="rounded border border-muted/40 bg-surface px-2 py-1 text-sm text-ink"
-            value={status}
-            onChange={(e) => {
-              setStatus(e.target.value);
-              setPagination((p) => ({ ...p, pageIndex: 0 }));
-            }}
+            value={state.status}
+            onChange={(e) => update((current) => ({ ...current, status: e.target.value, page: 1 }), 'push')}
           >
             {STATUS_FILTERS.map((f) => (
               <option key={f.value} value={f.value}>
@@ -142,11 +105,8 @@ function RunsTableBody({ initialList, canSeeQueue }: RunsTableProps) {
             <input
               type="checkbox"
               className="h-4 w-4 accent-[rgb(var(--q-accent))]"
-              checked={all}
-              onChange={(e) => {
-                setAll(e.target.checked);
-                setPagination((p) => ({ ...p, pageIndex: 0 }));
-              }}
+              checked={state.all}
+              onChange={(e) => update((current) => ({ ...current, all: e.target.checked, page: 1 }), 'push')}
             />
             All users (the whole queue)
           </label>
@@ -168,10 +128,7 @@ function RunsTableBody({ initialList, canSeeQueue }: RunsTableProps) {
             <button
               type="button"
               className="text-xs text-muted underline hover:text-ink"
-              onClick={() => {
-                setSelection({});
-                setSelectedRuns({});
-              }}
+              onClick={clearSelection}
             >
               Clear
             </button>
@@ -194,90 +151,30 @@ function RunsTableBody({ initialList, canSeeQueue }: RunsTableProps) {
       </div>
 
       {notice && (
-        <p
-          role={notice.tone === 'error' ? 'alert' : 'status'}
-          className={
-            'flex items-center justify-between gap-4 rounded-md border px-3 py-2 text-sm ' +
-            (notice.tone === 'error' ? 'border-danger/40 bg-danger/10 text-danger' : 'border-ok/40 bg-ok/10 text-ok')
-          }
-        >
-          <span>
-            {notice.text}{' '}
-            {notice.href && (
-              <a className="underline" href={notice.href}>
-                Open it
-              </a>
-            )}
-          </span>
-          <button type="button" className="text-xs underline" onClick={() => setNotice(null)}>
-            Dismiss
-          </button>
-        </p>
-      )}
-      {query.isError && (
-        <p role="alert" className="rounded-md border border-danger/40 bg-danger/10 px-3 py-2 text-sm text-danger">
-          The list could not be loaded: {(query.error as Error).message}
-        </p>
+        <TableNotice tone={notice.tone} onDismiss={() => setNotice(null)}>
+          {notice.text}{' '}
+          {notice.href && (
+            <a className="underline" href={notice.href}>
+              Open it
+            </a>
+          )}
+        </TableNotice>
       )}
 
-      <div className="overflow-x-auto rounded-lg border border-line bg-panel">
-        <table className="w-full whitespace-nowrap text-sm">
-          <caption className="sr-only">Runs, newest first</caption>
-          <thead className="border-b border-line text-left text-xs uppercase tracking-wide text-muted">
-            {table.getHeaderGroups().map((group) => (
-              <tr key={group.id}>
-                {group.headers.map((header) => {
-                  const numeric = (header.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric;
-                  return (
-                    <th key={header.id} scope="col" className={'px-3 py-2 font-medium ' + (numeric ? 'text-right' : '')}>
-                      {flexRender(header.column.columnDef.header, header.getContext())}
-                    </th>
-                  );
-                })}
-              </tr>
-            ))}
-          </thead>
-          <tbody>
-            {table.getRowModel().rows.map((row) => (
-              <tr
-                key={row.id}
-                className={'border-b border-line last:border-b-0 ' + (row.getIsSelected() ? 'bg-accent/5' : 'hover:bg-surface')}
-                data-run-id={row.id}
-                data-status={row.original.status}
-              >
-                {row.getVisibleCells().map((cell) => {
-                  const numeric = (cell.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric;
-                  return (
-                    <td key={cell.id} className={'px-3 py-2 align-middle ' + (numeric ? 'text-right' : '')}>
-                      {flexRender(cell.column.columnDef.cell, cell.getContext())}
-                    </td>
-                  );
-                })}
-              </tr>
-            ))}
-            {list.runs.length === 0 && (
-              <tr>
-                <td colSpan={columns.length} className="px-3 py-10 text-center whitespace-normal text-muted">
-                  {status ? 'No run has this status.' : 'No runs yet. Open a chain and choose “Run on captures…”, or open a capture and run a chain on it.'}
-                </td>
-              </tr>
-            )}
-          </tbody>
-        </table>
-      </div>
-
-      <TablePager
+      <ServerTableView
+        {...view}
         noun="runs"
-        page={list.page}
-        pageSize={list.pageSize}
-        total={list.total}
-        pageSizes={PAGE_SIZES}
-        onPageSize={(pageSize) => setPagination({ pageIndex: 0, pageSize })}
-        canPrevious={table.getCanPreviousPage()}
-        canNext={table.getCanNextPage()}
-        onPrevious={() => table.previousPage()}
-        onNext={() => table.nextPage()}
+        caption="Runs, newest first"
+        empty={
+          settled.status ? 'No run has this status.' : 'No runs yet. Open a chain and choose “Run on captures…”, or open a capture and run a chain on it.'
+        }
+        pageSizes={RUN_PAGE_SIZES}
+        cellPadding="px-3 py-2"
+        cellAlign="middle"
+        rowAttributes={(run) => ({ 'data-run-id': run.id, 'data-status': run.status })}
       />
     </section>
   );
 }
+
+export default withQueryClient(RunsTable, 2_000);
