@@ -1,10 +1,11 @@
 /**
  * Shared class lists for controls, so Astro pages and React islands look alike. Primary buttons
  * write in the panel colour on the accent: white on teal in light, near-black on sky in dark,
- * readable in both themes.
+ * readable in both themes. A disabled one turns grey rather than faint: a faded sky button on
+ * the dark panel still read as enabled.
  */
 export const buttonPrimary =
-  'inline-flex items-center justify-center gap-2 rounded-md bg-accent px-3.5 py-2 text-sm font-medium text-panel hover:bg-accent/90 disabled:cursor-not-allowed disabled:opacity-60';
+  'inline-flex items-center justify-center gap-2 rounded-md bg-accent px-3.5 py-2 text-sm font-medium text-panel hover:bg-accent/90 disabled:cursor-not-allowed disabled:bg-line disabled:text-muted disabled:hover:bg-line';
 
 /** A quiet bordered button for secondary actions. */
 export const buttonSecondary =
