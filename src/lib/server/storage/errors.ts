@@ -79,3 +79,14 @@ export class StorageConfigError extends StorageError {
     this.variable = variable;
   }
 }
+
+/** `exists` for any store: true when `head` finds the key, false on ObjectNotFoundError. */
+export async function existsByHead(store: { head(key: string): Promise<unknown> }, key: string): Promise<boolean> {
+  try {
+    await store.head(key);
+    return true;
+  } catch (error) {
+    if (error instanceof ObjectNotFoundError) return false;
+    throw error;
+  }
+}

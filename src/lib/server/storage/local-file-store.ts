@@ -3,7 +3,7 @@ import { mkdir, open, readdir, rename, rm, stat, unlink, type FileHandle } from 
 import { basename, dirname, join } from 'node:path';
 import { Readable } from 'node:stream';
 import { ByteTally, checkPutOptions, chunksOf } from './byte-meter';
-import { ObjectNotFoundError, StorageAbortedError } from './errors';
+import { ObjectNotFoundError, StorageAbortedError, existsByHead } from './errors';
 import { assertKeyPrefix, assertObjectKey, resolveRange } from './keys';
 import type { ByteRange, ObjectInfo, ObjectRead, ObjectSource, ObjectStore, PutOptions, PutResult } from './types';
 
@@ -132,14 +132,8 @@ export class LocalFileStore implements ObjectStore {
   }
 
   /** True when the file exists. */
-  async exists(key: string): Promise<boolean> {
-    try {
-      await this.head(key);
-      return true;
-    } catch (error) {
-      if (error instanceof ObjectNotFoundError) return false;
-      throw error;
-    }
+  exists(key: string): Promise<boolean> {
+    return existsByHead(this, key);
   }
 
   /** Unlinks the file; empty folders are left in place so a concurrent put into them cannot lose its folder. */

@@ -8,7 +8,7 @@ import {
 import { Upload } from '@aws-sdk/lib-storage';
 import { pipeline, Readable } from 'node:stream';
 import { ByteMeter, checkPutOptions, toReadable } from './byte-meter';
-import { ObjectNotFoundError, RangeNotSatisfiableError, StorageAbortedError, StorageError } from './errors';
+import { ObjectNotFoundError, RangeNotSatisfiableError, StorageAbortedError, StorageError, existsByHead } from './errors';
 import { assertKeyPrefix, assertObjectKey, resolveRange } from './keys';
 import type { ByteRange, ObjectInfo, ObjectRead, ObjectSource, ObjectStore, PutOptions, PutResult } from './types';
 
@@ -175,14 +175,8 @@ export class S3Store implements ObjectStore {
   }
 
   /** True when HeadObject finds the key. */
-  async exists(key: string): Promise<boolean> {
-    try {
-      await this.head(key);
-      return true;
-    } catch (error) {
-      if (error instanceof ObjectNotFoundError) return false;
-      throw error;
-    }
+  exists(key: string): Promise<boolean> {
+    return existsByHead(this, key);
   }
 
   /** DeleteObject, which S3 already treats as idempotent. */
