@@ -3,34 +3,10 @@
  * small readers of the SigMF annotation objects a capture carries.
  */
 import type { SampleType } from '@/dsp/types';
+import type { PresentedCapture } from '@/lib/server/captures/present';
 
-/** A capture as the API presents it. */
-export interface Capture {
-  id: string;
-  name: string;
-  owner: { id: string; name: string };
-  visibility: 'private' | 'team';
-  /** Samples per second (Hz). */
-  sampleRate: number;
-  /** RF frequency (Hz) of 0 Hz in the capture, or null when unknown. */
-  centerFrequency: number | null;
-  /** SigMF datatype string, e.g. ci16_le. */
-  datatype: string;
-  layout: SampleType;
-  sampleCount: number;
-  byteSize: number;
-  bytesPerSample: number;
-  durationSeconds: number;
-  sha256: string;
-  source: 'uploaded' | 'synthesized';
-  synthSpec: unknown | null;
-  notes: string;
-  tags: string[];
-  /** SigMF annotation objects (`core:sample_start`, `core:label`...). */
-  annotations: Record<string, unknown>[];
-  createdAt: string;
-  permissions: { update: boolean; delete: boolean };
-}
+/** A capture as the API presents it: the server's presenter type, so the two cannot drift apart. */
+export type Capture = PresentedCapture;
 
 /** Storage used against the quota (bytes). */
 export interface StorageUsage {
