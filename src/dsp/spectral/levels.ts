@@ -10,6 +10,13 @@ import type { SpectrumResult } from '../types';
 /** Power scaling of a spectrum estimate. */
 export type SpectralScaling = 'density' | 'spectrum';
 
+/** The scaling asked for, 'density' when absent; anything else is a RangeError naming the field. */
+export function checkedScaling(scaling: SpectralScaling | undefined): SpectralScaling {
+  const chosen = scaling ?? 'density';
+  if (chosen !== 'density' && chosen !== 'spectrum') throw new RangeError(`scaling: must be "density" or "spectrum", got "${String(chosen)}"`);
+  return chosen;
+}
+
 /** Lowest level reported: a power of exactly 0 maps here instead of -Infinity (JSON has no -Infinity). */
 export const LEVEL_FLOOR_DB = -300;
 

@@ -7,11 +7,11 @@
 import type { SpectrumResult } from '../types';
 import { windowFunction, type WindowName } from '../windows/window-function';
 import { hopSize, SegmentPeriodogram, type SpectralSampleType } from './periodogram';
-import { interpolatedPeak, levelUnit, powerToDb, type SpectralScaling } from './levels';
+import { checkedScaling, interpolatedPeak, levelUnit, powerToDb, type SpectralScaling } from './levels';
 import { assertSampleRate, spectralFrequencies, toDisplayOrder } from './axis';
 
-/** Options of a Welch estimate. */
-export interface WelchOptions {
+/** Segment settings shared by the Welch estimate and the spectrogram. */
+export interface SegmentAnalysisOptions {
   /** Samples per second (Hz). */
   sampleRate: number;
   sampleType: SpectralSampleType;
@@ -23,10 +23,14 @@ export interface WelchOptions {
   beta?: number;
   /** Fraction of a segment shared with the next (0 to below 1). Default 0.5. */
   overlap?: number;
-  /** 'mean' (default) or 'max' (max hold). */
-  averaging?: 'mean' | 'max';
   /** 'density' (default, power/Hz) or 'spectrum' (power per bin). */
   scaling?: SpectralScaling;
+}
+
+/** Options of a Welch estimate. */
+export interface WelchOptions extends SegmentAnalysisOptions {
+  /** 'mean' (default) or 'max' (max hold). */
+  averaging?: 'mean' | 'max';
 }
 
 /** Resolves a window option to periodic coefficients of `length` samples. */
@@ -57,9 +61,8 @@ export class WelchAccumulator {
     this.sampleRate = options.sampleRate;
     this.sampleType = options.sampleType;
     this.fftSize = options.fftSize;
-    this.scaling = options.scaling ?? 'density';
+    this.scaling = checkedScaling(options.scaling);
     this.averaging = options.averaging ?? 'mean';
-    if (this.scaling !== 'density' && this.scaling !== 'spectrum') throw new RangeError(`scaling: must be "density" or "spectrum", got "${String(this.scaling)}"`);
     if (this.averaging !== 'mean' && this.averaging !== 'max') throw new RangeError(`averaging: must be "mean" or "max", got "${String(this.averaging)}"`);
     this.windowName = options.window;
     this.beta = options.beta;
