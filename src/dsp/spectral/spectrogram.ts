@@ -11,7 +11,7 @@
  */
 import type { SpectrogramResult } from '../types';
 import { hopSize, SegmentPeriodogram, type SpectralSampleType } from './periodogram';
-import { checkedScaling, levelUnit, powerToDb, type SpectralScaling } from './levels';
+import { checkedScaling, levelUnit, powerToDb, segmentPowerScale, type SpectralScaling } from './levels';
 import { assertSampleRate, spectralFrequencies, toDisplayOrder } from './axis';
 import { resolveWindow, type SegmentAnalysisOptions } from './welch';
 
@@ -110,13 +110,7 @@ export class SpectrogramAccumulator {
   result(calibrationDb = 0): SpectrogramResult {
     if (!Number.isFinite(calibrationDb)) throw new RangeError(`calibrationDb: must be a finite number of dB, got ${calibrationDb}`);
     const all = this.current ? [...this.rows, this.current] : this.rows;
-    let s = 0;
-    let s2 = 0;
-    for (let k = 0; k < this.window.length; k++) {
-      s += this.window[k];
-      s2 += this.window[k] * this.window[k];
-    }
-    const baseScale = this.scaling === 'density' ? 1 / (this.sampleRate * s2) : 1 / (s * s);
+    const baseScale = segmentPowerScale(this.window, this.sampleRate, this.scaling);
     const display = new Float64Array(this.periodogram.bins);
     const levels: number[][] = [];
     const times: number[] = [];

@@ -7,7 +7,7 @@
 import type { SpectrumResult } from '../types';
 import { windowFunction, type WindowName } from '../windows/window-function';
 import { hopSize, SegmentPeriodogram, type SpectralSampleType } from './periodogram';
-import { checkedScaling, interpolatedPeak, levelUnit, powerToDb, type SpectralScaling } from './levels';
+import { checkedScaling, interpolatedPeak, levelUnit, powerToDb, segmentPowerScale, type SpectralScaling } from './levels';
 import { assertSampleRate, spectralFrequencies, toDisplayOrder } from './axis';
 
 /** Segment settings shared by the Welch estimate and the spectrogram. */
@@ -135,13 +135,7 @@ export class WelchAccumulator {
   power(): Float64Array {
     const segments = this.periodogram.segments;
     if (segments === 0) throw new RangeError('samples: no samples reached the spectrum; nothing to estimate');
-    let s = 0;
-    let s2 = 0;
-    for (let k = 0; k < this.window.length; k++) {
-      s += this.window[k];
-      s2 += this.window[k] * this.window[k];
-    }
-    let scale = this.scaling === 'density' ? 1 / (this.sampleRate * s2) : 1 / (s * s);
+    let scale = segmentPowerScale(this.window, this.sampleRate, this.scaling);
     if (this.averaging === 'mean') scale /= segments;
     const out = toDisplayOrder(this.accumulated, this.sampleType, this.fftSize);
     for (let k = 0; k < out.length; k++) out[k] *= scale;
