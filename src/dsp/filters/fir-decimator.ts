@@ -105,6 +105,8 @@ export class FirDecimator {
   }
 
   // Write each sample into its phase stream: sample i is phase r = qM - i of group q = ceil(i / M).
+  // Real and complex loops stay separate: one loop with a channel test measured about 5 % slower on
+  // real input (tests/dsp/filters-decimator.bench.ts).
   private scatter(input: Float32Array, m0: number): void {
     const M = this.factor;
     const ch = this.channels;
@@ -236,6 +238,8 @@ function complexKernel(buf: Float64Array, stride: number, g: Float64Array, J: nu
   }
 }
 
+// A copy of complexKernel for one value per sample, on purpose: each kernel keeps its sliding
+// samples in locals (registers), which a shared kernel looping over channels would not.
 function realKernel(buf: Float64Array, stride: number, g: Float64Array, J: number, phases: Int32Array, count: number, out: Float32Array): void {
   let m = 0;
   for (; m + 3 < count; m += 4) {

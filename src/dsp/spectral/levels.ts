@@ -10,6 +10,27 @@ import type { SpectrumResult } from '../types';
 /** Power scaling of a spectrum estimate. */
 export type SpectralScaling = 'density' | 'spectrum';
 
+/** The scaling asked for, 'density' when absent; anything else is a RangeError naming the field. */
+export function checkedScaling(scaling: SpectralScaling | undefined): SpectralScaling {
+  const chosen = scaling ?? 'density';
+  if (chosen !== 'density' && chosen !== 'spectrum') throw new RangeError(`scaling: must be "density" or "spectrum", got "${String(chosen)}"`);
+  return chosen;
+}
+
+/**
+ * Scale from |X_k|^2 of one windowed segment to power: 1/(fs sum w^2) for density (per Hz, fs in
+ * Hz), 1/(sum w)^2 for spectrum (per bin), as scipy.signal.welch scales.
+ */
+export function segmentPowerScale(window: Float64Array, sampleRate: number, scaling: SpectralScaling): number {
+  let s = 0;
+  let s2 = 0;
+  for (let k = 0; k < window.length; k++) {
+    s += window[k];
+    s2 += window[k] * window[k];
+  }
+  return scaling === 'density' ? 1 / (sampleRate * s2) : 1 / (s * s);
+}
+
 /** Lowest level reported: a power of exactly 0 maps here instead of -Infinity (JSON has no -Infinity). */
 export const LEVEL_FLOOR_DB = -300;
 

@@ -85,7 +85,7 @@ export class SegmentPeriodogram {
         this.samplesIn += block.length / per;
         return;
       }
-      this.windowFromPending(0, this.window, this.fftSize);
+      this.windowFrom(this.pending, 0, this.window, this.fftSize);
       this.transformWindowed(consume);
       const nextStart = pos - (segmentValues - hopValues);
       if (nextStart >= 0) {
@@ -99,7 +99,7 @@ export class SegmentPeriodogram {
     }
     // Segments lying wholly inside the block are windowed straight from it, without a copy.
     while (pos + segmentValues <= block.length) {
-      this.windowFromBlock(block, pos, this.window, this.fftSize);
+      this.windowFrom(block, pos, this.window, this.fftSize);
       this.transformWindowed(consume);
       pos += hopValues;
     }
@@ -121,37 +121,13 @@ export class SegmentPeriodogram {
     const count = this.pendingSamples;
     if (shortWindow.length !== count) throw new RangeError(`shortWindow: needs ${count} coefficients, got ${shortWindow.length}`);
     this.windowed.fill(0);
-    this.windowFromPending(0, shortWindow, count);
+    this.windowFrom(this.pending, 0, shortWindow, count);
     this.transformWindowed(consume);
   }
 
-  /** windowed[0..count) = pending[start..] x w, for `count` samples. */
-  private windowFromPending(start: number, w: Float64Array, count: number): void {
-    const src = this.pending;
-    const dst = this.windowed;
-    if (this.sampleType === 'complex') {
-      for (let k = 0, j = 0, s = start; k < count; k++, j += 2, s += 2) {
-        const g = w[k];
-        dst[j] = src[s] * g;
-        dst[j + 1] = src[s + 1] * g;
-      }
-    } else {
-      for (let k = 0, s = start; k < count; k++, s++) dst[k] = src[s] * w[k];
-    }
-  }
-
-  /** Same as windowFromPending for a segment read straight from an input block (kept monomorphic for speed). */
-  private windowFromBlock(src: Float32Array, start: number, w: Float64Array, count: number): void {
-    const dst = this.windowed;
-    if (this.sampleType === 'complex') {
-      for (let k = 0, j = 0, s = start; k < count; k++, j += 2, s += 2) {
-        const g = w[k];
-        dst[j] = src[s] * g;
-        dst[j + 1] = src[s + 1] * g;
-      }
-    } else {
-      for (let k = 0, s = start; k < count; k++, s++) dst[k] = src[s] * w[k];
-    }
+  /** windowed[0..count) = src[start..] x w, for `count` samples of the pending buffer or an input block. */
+  private windowFrom(src: Float32Array | Float64Array, start: number, w: Float64Array, count: number): void {
+    applyWindow(src, start, w, count, this.windowed, this.sampleType === 'complex');
   }
 
   private transformWindowed(consume: SegmentConsumer): void {
@@ -159,5 +135,21 @@ export class SegmentPeriodogram {
     else this.plan.forwardReal(this.windowed, this.spectrum);
     this.segments++;
     consume(this.spectrum);
+  }
+}
+
+/**
+ * dst[0..count) = src[start..] x w for `count` samples (two values each when complex). One loop
+ * serves the float64 pending buffer and float32 blocks: measured as fast as two monomorphic copies.
+ */
+function applyWindow(src: Float32Array | Float64Array, start: number, w: Float64Array, count: number, dst: Float64Array, complex: boolean): void {
+  if (complex) {
+    for (let k = 0, j = 0, s = start; k < count; k++, j += 2, s += 2) {
+      const g = w[k];
+      dst[j] = src[s] * g;
+      dst[j + 1] = src[s + 1] * g;
+    }
+  } else {
+    for (let k = 0, s = start; k < count; k++, s++) dst[k] = src[s] * w[k];
   }
 }

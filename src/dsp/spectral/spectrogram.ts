@@ -10,26 +10,15 @@
  * Levels use the same scaling as scipy.signal.spectrogram (mode 'psd', detrend=False).
  */
 import type { SpectrogramResult } from '../types';
-import type { WindowName } from '../windows/window-function';
 import { hopSize, SegmentPeriodogram, type SpectralSampleType } from './periodogram';
-import { levelUnit, powerToDb, type SpectralScaling } from './levels';
+import { checkedScaling, levelUnit, powerToDb, segmentPowerScale, type SpectralScaling } from './levels';
 import { assertSampleRate, spectralFrequencies, toDisplayOrder } from './axis';
-import { resolveWindow } from './welch';
+import { resolveWindow, type SegmentAnalysisOptions } from './welch';
 
 /** Options of a spectrogram. */
-export interface SpectrogramOptions {
-  /** Samples per second (Hz). */
-  sampleRate: number;
-  sampleType: SpectralSampleType;
-  /** Segment length and DFT size (samples, power of two >= 2). */
-  fftSize: number;
-  window?: WindowName | Float64Array;
-  beta?: number;
-  /** Fraction of a segment shared with the next (0 to below 1). Default 0.5. */
-  overlap?: number;
+export interface SpectrogramOptions extends SegmentAnalysisOptions {
   /** Most time rows kept (>= 2). Default 256. */
   maxRows?: number;
-  scaling?: SpectralScaling;
 }
 
 interface Row {
@@ -63,8 +52,7 @@ export class SpectrogramAccumulator {
     this.sampleType = options.sampleType;
     this.fftSize = options.fftSize;
     this.maxRows = maxRows;
-    this.scaling = options.scaling ?? 'density';
-    if (this.scaling !== 'density' && this.scaling !== 'spectrum') throw new RangeError(`scaling: must be "density" or "spectrum", got "${String(this.scaling)}"`);
+    this.scaling = checkedScaling(options.scaling);
     this.window = resolveWindow(options.window, options.fftSize, options.beta);
     this.periodogram = new SegmentPeriodogram(options.sampleType, this.window, hopSize(options.fftSize, options.overlap ?? 0.5));
     this.addSegment = (power) => this.add(power);
@@ -122,13 +110,7 @@ export class SpectrogramAccumulator {
   result(calibrationDb = 0): SpectrogramResult {
     if (!Number.isFinite(calibrationDb)) throw new RangeError(`calibrationDb: must be a finite number of dB, got ${calibrationDb}`);
     const all = this.current ? [...this.rows, this.current] : this.rows;
-    let s = 0;
-    let s2 = 0;
-    for (let k = 0; k < this.window.length; k++) {
-      s += this.window[k];
-      s2 += this.window[k] * this.window[k];
-    }
-    const baseScale = this.scaling === 'density' ? 1 / (this.sampleRate * s2) : 1 / (s * s);
+    const baseScale = segmentPowerScale(this.window, this.sampleRate, this.scaling);
     const display = new Float64Array(this.periodogram.bins);
     const levels: number[][] = [];
     const times: number[] = [];

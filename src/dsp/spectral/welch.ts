@@ -7,11 +7,11 @@
 import type { SpectrumResult } from '../types';
 import { windowFunction, type WindowName } from '../windows/window-function';
 import { hopSize, SegmentPeriodogram, type SpectralSampleType } from './periodogram';
-import { interpolatedPeak, levelUnit, powerToDb, type SpectralScaling } from './levels';
+import { checkedScaling, interpolatedPeak, levelUnit, powerToDb, segmentPowerScale, type SpectralScaling } from './levels';
 import { assertSampleRate, spectralFrequencies, toDisplayOrder } from './axis';
 
-/** Options of a Welch estimate. */
-export interface WelchOptions {
+/** Segment settings shared by the Welch estimate and the spectrogram. */
+export interface SegmentAnalysisOptions {
   /** Samples per second (Hz). */
   sampleRate: number;
   sampleType: SpectralSampleType;
@@ -23,10 +23,14 @@ export interface WelchOptions {
   beta?: number;
   /** Fraction of a segment shared with the next (0 to below 1). Default 0.5. */
   overlap?: number;
-  /** 'mean' (default) or 'max' (max hold). */
-  averaging?: 'mean' | 'max';
   /** 'density' (default, power/Hz) or 'spectrum' (power per bin). */
   scaling?: SpectralScaling;
+}
+
+/** Options of a Welch estimate. */
+export interface WelchOptions extends SegmentAnalysisOptions {
+  /** 'mean' (default) or 'max' (max hold). */
+  averaging?: 'mean' | 'max';
 }
 
 /** Resolves a window option to periodic coefficients of `length` samples. */
@@ -57,9 +61,8 @@ export class WelchAccumulator {
     this.sampleRate = options.sampleRate;
     this.sampleType = options.sampleType;
     this.fftSize = options.fftSize;
-    this.scaling = options.scaling ?? 'density';
+    this.scaling = checkedScaling(options.scaling);
     this.averaging = options.averaging ?? 'mean';
-    if (this.scaling !== 'density' && this.scaling !== 'spectrum') throw new RangeError(`scaling: must be "density" or "spectrum", got "${String(this.scaling)}"`);
     if (this.averaging !== 'mean' && this.averaging !== 'max') throw new RangeError(`averaging: must be "mean" or "max", got "${String(this.averaging)}"`);
     this.windowName = options.window;
     this.beta = options.beta;
@@ -132,13 +135,7 @@ export class WelchAccumulator {
   power(): Float64Array {
     const segments = this.periodogram.segments;
     if (segments === 0) throw new RangeError('samples: no samples reached the spectrum; nothing to estimate');
-    let s = 0;
-    let s2 = 0;
-    for (let k = 0; k < this.window.length; k++) {
-      s += this.window[k];
-      s2 += this.window[k] * this.window[k];
-    }
-    let scale = this.scaling === 'density' ? 1 / (this.sampleRate * s2) : 1 / (s * s);
+    let scale = segmentPowerScale(this.window, this.sampleRate, this.scaling);
     if (this.averaging === 'mean') scale /= segments;
     const out = toDisplayOrder(this.accumulated, this.sampleType, this.fftSize);
     for (let k = 0; k < out.length; k++) out[k] *= scale;

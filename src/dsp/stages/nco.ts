@@ -159,6 +159,8 @@ export class Nco {
     }
   }
 
+  // mixReal repeats mixComplex's chunk walk on purpose: moving the per-sample loop into a shared
+  // walker measured 10 to 30 % slower (node 20, 2^22-sample blocks), and the mix is on the hot path.
   /** output (interleaved complex, 2 values per input value) = real input * oscillator. */
   mixReal(input: Float32Array, output: Float32Array): void {
     const samples = input.length;

@@ -1,7 +1,7 @@
 /** Parameter pieces shared by the spectrum, spectrogram and measure stages. */
 import { z } from 'zod';
-import { WINDOW_NAMES, DEFAULT_KAISER_BETA } from '../windows/window-function';
-import type { FieldInfo } from '../types';
+import { WINDOW_NAMES, DEFAULT_KAISER_BETA, type WindowName } from '../windows/window-function';
+import type { FieldInfo, StreamFormat } from '../types';
 
 /** FFT size (samples) of an analysis stage: a power of two from 16 to `max`. */
 export function fftSizeSchema(defaultSize: number, max: number) {
@@ -36,3 +36,49 @@ export const calibrationField: FieldInfo = {
   unit: 'dB',
   help: 'Added to every level; a non-zero value turns dBFS into dBm (the dBm reading of a 0 dBFS signal).',
 };
+
+/**
+ * Schema fields of a segment analysis stage (spectrum, spectrogram) that come before its own:
+ * window, beta, fftSize (samples, power of two up to `maxFftSize`) and overlap. Spread first into
+ * the object so the keys keep their order in forms and saved chains.
+ */
+export function segmentSchemaFields(defaultFftSize: number, maxFftSize: number) {
+  return {
+    window: windowSchema.default('hann'),
+    beta: betaSchema,
+    fftSize: fftSizeSchema(defaultFftSize, maxFftSize),
+    overlap: overlapSchema,
+  };
+}
+
+/** Schema fields that end a segment analysis stage: level scaling and calibration (dB). */
+export const levelSchemaFields = { scaling: scalingSchema, calibrationDb: calibrationSchema };
+
+/** Form fields matching `segmentSchemaFields`. */
+export const segmentFields = { window: windowField, beta: betaField, fftSize: fftSizeField, overlap: overlapField };
+
+/** Form fields matching `levelSchemaFields`. */
+export const levelFields = { scaling: scalingField, calibrationDb: calibrationField };
+
+/** What a segment analysis stage's parameters carry, whatever its own extra fields. */
+export interface SegmentParams {
+  window: WindowName;
+  beta: number;
+  /** Segment length (samples). */
+  fftSize: number;
+  overlap: number;
+  scaling: 'density' | 'spectrum';
+}
+
+/** Accumulator options (sample rate in Hz, sample type, segment settings) for a stage's input stream. */
+export function segmentOptions(params: SegmentParams, input: StreamFormat) {
+  return {
+    sampleRate: input.sampleRate,
+    sampleType: input.sampleType === 'complex' ? ('complex' as const) : ('real' as const),
+    fftSize: params.fftSize,
+    window: params.window,
+    beta: params.beta,
+    overlap: params.overlap,
+    scaling: params.scaling,
+  };
+}

@@ -6,31 +6,14 @@
 import { z } from 'zod';
 import type { StageDefinition } from '../types';
 import { SpectrogramAccumulator } from '../spectral/spectrogram';
-import {
-  betaField,
-  betaSchema,
-  calibrationField,
-  calibrationSchema,
-  fftSizeField,
-  fftSizeSchema,
-  overlapField,
-  overlapSchema,
-  scalingField,
-  scalingSchema,
-  windowField,
-  windowSchema,
-} from './spectral-params';
+import { levelFields, levelSchemaFields, segmentFields, segmentOptions, segmentSchemaFields } from './spectral-params';
 
 export const spectrogramSchema = z
   .object({
-    window: windowSchema.default('hann'),
-    beta: betaSchema,
     // Columns = fftSize: 8192 x 1024 rows bounds the image at about 8 million levels.
-    fftSize: fftSizeSchema(1024, 8192),
-    overlap: overlapSchema,
+    ...segmentSchemaFields(1024, 8192),
     maxRows: z.number().int().min(2).max(1024).default(256),
-    scaling: scalingSchema,
-    calibrationDb: calibrationSchema,
+    ...levelSchemaFields,
   })
   .strict();
 
@@ -42,32 +25,19 @@ export const spectrogramStage: StageDefinition<SpectrogramParams> = {
   summary: 'Power spectrum over time as a bounded image (rows merged as the stream grows); the samples pass through unchanged.',
   schema: spectrogramSchema,
   fields: {
-    window: windowField,
-    beta: betaField,
-    fftSize: fftSizeField,
-    overlap: overlapField,
+    ...segmentFields,
     maxRows: {
       label: 'Time rows',
       help: 'Most rows in the image. When the rows fill up, neighbouring rows are averaged in pairs and each row then covers twice as many segments.',
     },
-    scaling: scalingField,
-    calibrationDb: calibrationField,
+    ...levelFields,
   },
   accepts: ['real', 'complex'],
   propagate(_params, input) {
     return { output: { ...input }, issues: [] };
   },
   create(params, input) {
-    const image = new SpectrogramAccumulator({
-      sampleRate: input.sampleRate,
-      sampleType: input.sampleType === 'complex' ? 'complex' : 'real',
-      fftSize: params.fftSize,
-      window: params.window,
-      beta: params.beta,
-      overlap: params.overlap,
-      maxRows: params.maxRows,
-      scaling: params.scaling,
-    });
+    const image = new SpectrogramAccumulator({ ...segmentOptions(params, input), maxRows: params.maxRows });
     const empty = new Float32Array(0);
     return {
       process(block) {

@@ -6,30 +6,13 @@
 import { z } from 'zod';
 import type { StageDefinition } from '../types';
 import { WelchAccumulator } from '../spectral/welch';
-import {
-  betaField,
-  betaSchema,
-  calibrationField,
-  calibrationSchema,
-  fftSizeField,
-  fftSizeSchema,
-  overlapField,
-  overlapSchema,
-  scalingField,
-  scalingSchema,
-  windowField,
-  windowSchema,
-} from './spectral-params';
+import { levelFields, levelSchemaFields, segmentFields, segmentOptions, segmentSchemaFields } from './spectral-params';
 
 export const spectrumSchema = z
   .object({
-    window: windowSchema.default('hann'),
-    beta: betaSchema,
-    fftSize: fftSizeSchema(4096, 1 << 18),
-    overlap: overlapSchema,
+    ...segmentSchemaFields(4096, 1 << 18),
     averaging: z.enum(['mean', 'max']).default('mean'),
-    scaling: scalingSchema,
-    calibrationDb: calibrationSchema,
+    ...levelSchemaFields,
   })
   .strict();
 
@@ -41,29 +24,16 @@ export const spectrumStage: StageDefinition<SpectrumParams> = {
   summary: 'Welch power spectrum of the stream (dBFS/Hz or dBFS, optionally calibrated to dBm); the samples pass through unchanged.',
   schema: spectrumSchema,
   fields: {
-    window: windowField,
-    beta: betaField,
-    fftSize: fftSizeField,
-    overlap: overlapField,
+    ...segmentFields,
     averaging: { label: 'Averaging', help: "'mean': Welch average of the segment powers. 'max': highest power per bin over all segments (max hold)." },
-    scaling: scalingField,
-    calibrationDb: calibrationField,
+    ...levelFields,
   },
   accepts: ['real', 'complex'],
   propagate(_params, input) {
     return { output: { ...input }, issues: [] };
   },
   create(params, input) {
-    const welch = new WelchAccumulator({
-      sampleRate: input.sampleRate,
-      sampleType: input.sampleType === 'complex' ? 'complex' : 'real',
-      fftSize: params.fftSize,
-      window: params.window,
-      beta: params.beta,
-      overlap: params.overlap,
-      averaging: params.averaging,
-      scaling: params.scaling,
-    });
+    const welch = new WelchAccumulator({ ...segmentOptions(params, input), averaging: params.averaging });
     let samples = 0;
     const empty = new Float32Array(0);
     return {

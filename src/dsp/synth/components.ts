@@ -144,24 +144,41 @@ export class DigitalCarrierComponent implements SignalComponent {
   }
 }
 
-/** AM by a tone: s(t) = A (1 + depth cos(2 pi fm t)); A is the unmodulated carrier's amplitude. */
-export class AmCarrierComponent implements SignalComponent {
+/** A carrier modulated by one tone (AM, FM): both oscillators filled here, s(t) by each modulation. */
+abstract class ToneModulatedCarrier implements SignalComponent {
   private readonly carrier: Oscillator;
   private readonly modulator: Oscillator;
-  private readonly amplitude: number;
-  private readonly depth: number;
+  /** Unmodulated carrier amplitude (linear, full scale 1). */
+  protected readonly amplitude: number;
 
-  constructor(spec: Extract<SynthCarrier, { modulation: 'am' }>, frequency: number, sampleRate: number) {
+  /** Carrier at `frequency` Hz, modulating tone at `toneFrequency` Hz, level in dBFS, rate in Hz. */
+  constructor(level: number, frequency: number, toneFrequency: number, sampleRate: number) {
     this.carrier = new Oscillator(frequency / sampleRate, 0);
-    this.modulator = new Oscillator(spec.toneFrequency / sampleRate, 0);
-    this.amplitude = dbfsToAmplitude(spec.level);
-    this.depth = spec.depth;
+    this.modulator = new Oscillator(toneFrequency / sampleRate, 0);
+    this.amplitude = dbfsToAmplitude(level);
   }
 
   add(re: Float64Array, im: Float64Array, count: number, scratch: Scratch): void {
-    const { carrierRe, carrierIm, modRe, modIm } = scratch;
-    this.carrier.fill(carrierRe, carrierIm, count);
-    this.modulator.fill(modRe, modIm, count);
+    this.carrier.fill(scratch.carrierRe, scratch.carrierIm, count);
+    this.modulator.fill(scratch.modRe, scratch.modIm, count);
+    this.modulate(re, im, count, scratch);
+  }
+
+  /** Add `count` samples, given the carrier (carrierRe/Im) and modulating tone (modRe/Im) in `scratch`. */
+  protected abstract modulate(re: Float64Array, im: Float64Array, count: number, scratch: Scratch): void;
+}
+
+/** AM by a tone: s(t) = A (1 + depth cos(2 pi fm t)); A is the unmodulated carrier's amplitude. */
+export class AmCarrierComponent extends ToneModulatedCarrier {
+  private readonly depth: number;
+
+  constructor(spec: Extract<SynthCarrier, { modulation: 'am' }>, frequency: number, sampleRate: number) {
+    super(spec.level, frequency, spec.toneFrequency, sampleRate);
+    this.depth = spec.depth;
+  }
+
+  protected modulate(re: Float64Array, im: Float64Array, count: number, scratch: Scratch): void {
+    const { carrierRe, carrierIm, modRe } = scratch;
     const a = this.amplitude;
     const m = this.depth;
     for (let k = 0; k < count; k++) {
@@ -173,23 +190,16 @@ export class AmCarrierComponent implements SignalComponent {
 }
 
 /** FM by a tone: s(t) = A exp(j beta sin(2 pi fm t)), beta = deviation / fm (constant envelope). */
-export class FmCarrierComponent implements SignalComponent {
-  private readonly carrier: Oscillator;
-  private readonly modulator: Oscillator;
-  private readonly amplitude: number;
+export class FmCarrierComponent extends ToneModulatedCarrier {
   private readonly index: number;
 
   constructor(spec: Extract<SynthCarrier, { modulation: 'fm' }>, frequency: number, sampleRate: number) {
-    this.carrier = new Oscillator(frequency / sampleRate, 0);
-    this.modulator = new Oscillator(spec.toneFrequency / sampleRate, 0);
-    this.amplitude = dbfsToAmplitude(spec.level);
+    super(spec.level, frequency, spec.toneFrequency, sampleRate);
     this.index = spec.deviation / spec.toneFrequency;
   }
 
-  add(re: Float64Array, im: Float64Array, count: number, scratch: Scratch): void {
-    const { carrierRe, carrierIm, modRe, modIm } = scratch;
-    this.carrier.fill(carrierRe, carrierIm, count);
-    this.modulator.fill(modRe, modIm, count);
+  protected modulate(re: Float64Array, im: Float64Array, count: number, scratch: Scratch): void {
+    const { carrierRe, carrierIm, modIm } = scratch;
     const a = this.amplitude;
     const beta = this.index;
     for (let k = 0; k < count; k++) {

@@ -28,8 +28,36 @@ const INTERFERER_OFFSET = -1.35e6;
 const beacon = (frequency: number, level: number) =>
   ({ modulation: 'qpsk', frequency, level, symbolRate: 250e3, rollOff: 0.35, span: 12 }) as const;
 
+/** What sets one baseband board apart: its list entry, how it stores I/Q, its impairments and seed. */
+interface BasebandBoard extends Omit<DemoSynthCapture, 'spec'> {
+  datatype: SynthSpecInput['datatype'];
+  layout: 'complex' | 'real-pair';
+  impairments: SynthSpecInput['impairments'];
+  seed: number;
+}
+
+/** A baseband I/Q capture at 4 Msps around the band centre: every board sees the same beacon, interferer and noise floor. */
+function basebandCapture({ datatype, layout, impairments, seed, ...entry }: BasebandBoard): DemoSynthCapture {
+  return {
+    ...entry,
+    spec: {
+      name: entry.name,
+      sampleRate: 4e6,
+      duration: 0.25,
+      datatype,
+      layout,
+      centerFrequency: BAND_CENTRE,
+      tones: [{ frequency: INTERFERER_OFFSET, level: -50, phase: 0 }],
+      carriers: [beacon(BEACON_OFFSET, -12)],
+      noise: { mode: 'total', level: -47 },
+      impairments,
+      seed,
+    },
+  };
+}
+
 export const demoSynthSpecs: readonly DemoSynthCapture[] = [
-  {
+  basebandCapture({
     slug: 'saltmarsh-rev-a-beacon',
     name: 'Saltmarsh rev A: node beacon, bench 1',
     description:
@@ -37,29 +65,20 @@ export const demoSynthSpecs: readonly DemoSynthCapture[] = [
       'QPSK node beacon (250 ksym/s) 600 kHz above the LO and a weak CW interferer at -1.35 MHz. Rev A shows about ' +
       '0.3 dB I/Q gain and 2 deg phase imbalance and a visible DC offset. Synthesized (invented scenario).',
     tags: ['saltmarsh', 'rev-a', 'beacon', 'synthesized'],
-    spec: {
-      name: 'Saltmarsh rev A: node beacon, bench 1',
-      sampleRate: 4e6,
-      duration: 0.25,
-      datatype: 'ci16_le',
-      layout: 'complex',
-      centerFrequency: BAND_CENTRE,
-      tones: [{ frequency: INTERFERER_OFFSET, level: -50, phase: 0 }],
-      carriers: [beacon(BEACON_OFFSET, -12)],
-      noise: { mode: 'total', level: -47 },
-      impairments: {
-        gainImbalance: 0.3,
-        phaseImbalance: 2,
-        dcOffsetI: 0.018,
-        dcOffsetQ: -0.011,
-        frequencyOffset: 1_800,
-        adcBits: 12,
-        clip: true,
-      },
-      seed: 2401,
+    datatype: 'ci16_le',
+    layout: 'complex',
+    impairments: {
+      gainImbalance: 0.3,
+      phaseImbalance: 2,
+      dcOffsetI: 0.018,
+      dcOffsetQ: -0.011,
+      frequencyOffset: 1_800,
+      adcBits: 12,
+      clip: true,
     },
-  },
-  {
+    seed: 2401,
+  }),
+  basebandCapture({
     slug: 'saltmarsh-rev-b-beacon',
     name: 'Saltmarsh rev B: node beacon, bench 1',
     description:
@@ -67,28 +86,19 @@ export const demoSynthSpecs: readonly DemoSynthCapture[] = [
       'weak CW interferer at -1.35 MHz. The I/Q balance and DC offset are mostly fixed (0.03 dB, 0.2 deg). ' +
       'Synthesized (invented scenario).',
     tags: ['saltmarsh', 'rev-b', 'beacon', 'synthesized'],
-    spec: {
-      name: 'Saltmarsh rev B: node beacon, bench 1',
-      sampleRate: 4e6,
-      duration: 0.25,
-      datatype: 'ci16_le',
-      layout: 'complex',
-      centerFrequency: BAND_CENTRE,
-      tones: [{ frequency: INTERFERER_OFFSET, level: -50, phase: 0 }],
-      carriers: [beacon(BEACON_OFFSET, -12)],
-      noise: { mode: 'total', level: -47 },
-      impairments: {
-        gainImbalance: 0.03,
-        phaseImbalance: 0.2,
-        dcOffsetI: 0.0009,
-        dcOffsetQ: -0.0006,
-        frequencyOffset: 600,
-        adcBits: 12,
-        clip: true,
-      },
-      seed: 2402,
+    datatype: 'ci16_le',
+    layout: 'complex',
+    impairments: {
+      gainImbalance: 0.03,
+      phaseImbalance: 0.2,
+      dcOffsetI: 0.0009,
+      dcOffsetQ: -0.0006,
+      frequencyOffset: 600,
+      adcBits: 12,
+      clip: true,
     },
-  },
+    seed: 2402,
+  }),
   {
     slug: 'saltmarsh-if-10m7',
     name: 'Saltmarsh IF variant: 10.7 MHz real-sampled IF',
@@ -111,7 +121,7 @@ export const demoSynthSpecs: readonly DemoSynthCapture[] = [
       seed: 1070,
     },
   },
-  {
+  basebandCapture({
     slug: 'saltmarsh-dual-adc',
     name: 'Saltmarsh dual-ADC I/Q, prototype board',
     description:
@@ -119,26 +129,17 @@ export const demoSynthSpecs: readonly DemoSynthCapture[] = [
       '4 Msps (stored as two real channels, ri16_le). The channels differ by 0.5 dB in gain and 1.2 deg in phase and ' +
       'carry small DC offsets; combine them with quadrature-combine. Synthesized (invented scenario).',
     tags: ['saltmarsh', 'dual-adc', 'real-pair', 'synthesized'],
-    spec: {
-      name: 'Saltmarsh dual-ADC I/Q, prototype board',
-      sampleRate: 4e6,
-      duration: 0.25,
-      datatype: 'ri16_le',
-      layout: 'real-pair',
-      centerFrequency: BAND_CENTRE,
-      tones: [{ frequency: INTERFERER_OFFSET, level: -50, phase: 0 }],
-      carriers: [beacon(BEACON_OFFSET, -12)],
-      noise: { mode: 'total', level: -47 },
-      impairments: {
-        gainImbalance: 0.5,
-        phaseImbalance: 1.2,
-        dcOffsetI: 0.004,
-        dcOffsetQ: -0.006,
-        frequencyOffset: 1_000,
-        adcBits: 12,
-        clip: true,
-      },
-      seed: 2403,
+    datatype: 'ri16_le',
+    layout: 'real-pair',
+    impairments: {
+      gainImbalance: 0.5,
+      phaseImbalance: 1.2,
+      dcOffsetI: 0.004,
+      dcOffsetQ: -0.006,
+      frequencyOffset: 1_000,
+      adcBits: 12,
+      clip: true,
     },
-  },
+    seed: 2403,
+  }),
 ];
