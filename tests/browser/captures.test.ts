@@ -4,54 +4,35 @@
  * balance report, a raw file goes up through the upload panel (surviving a dropped connection),
  * and an operator sees another user's capture read-only.
  */
-import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import type { Browser, Page } from 'playwright-core';
 import { startServer, type TestServer } from '../helpers/server';
-import { Client } from '../helpers/client';
-
-const chromiumPath = '/usr/bin/chromium';
-const hasChromium = existsSync(chromiumPath);
-const password = 'quadrille-demo';
+import { hasChromium, hydrated, launchChromium, OneTab } from '../helpers/browser';
 
 describe.skipIf(!hasChromium)('captures in a browser', { timeout: 120_000 }, () => {
   let server: TestServer;
   let browser: Browser;
-  let context: BrowserContext | null = null;
+  let tabs: OneTab;
   let files: string;
 
   beforeAll(async () => {
     server = await startServer();
     files = mkdtempSync(join(tmpdir(), 'quadrille-upload-'));
-    browser = await chromium.launch({
-      executablePath: chromiumPath,
-      headless: true,
-      args: ['--no-sandbox', '--disable-gpu', '--disable-dev-shm-usage', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
-    });
+    browser = await launchChromium();
+    tabs = new OneTab(browser, server.baseUrl);
   });
 
   afterAll(async () => {
-    await context?.close();
+    await tabs?.close();
     await browser?.close();
     await server?.stop();
     if (files) rmSync(files, { recursive: true, force: true });
   });
 
-  /** A fresh tab signed in as `email` (session cookie from the sign-in API, as the form would set it). */
-  async function pageAs(email: string): Promise<Page> {
-    await context?.close();
-    const client = new Client(server.baseUrl);
-    expect((await client.signIn(email, password)).status).toBe(200);
-    context = await browser.newContext({ viewport: { width: 1280, height: 900 }, baseURL: server.baseUrl });
-    await context.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: server.baseUrl })));
-    return context.newPage();
-  }
-
-  async function hydrated(page: Page): Promise<void> {
-    await page.waitForFunction(() => document.querySelector('astro-island[ssr]') === null);
-  }
+  const pageAs = (email: string) => tabs.pageAs(email);
 
   /**
    * Fills an input and checks it holds exactly `text`: React may still be attaching to the

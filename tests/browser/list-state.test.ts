@@ -5,17 +5,12 @@
  *
  * Set QUADRILLE_SHOTS_DIR to also save screenshots of both lists at 1280 px, light and dark.
  */
-import { existsSync, mkdirSync } from 'node:fs';
-import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { startServer, type TestServer } from '../helpers/server';
 import type { Client } from '../helpers/client';
+import { hasChromium, hydrated as islandsHydrated, launchChromium, openContext, shoot as shootPage } from '../helpers/browser';
 import { blindIqChain, complexTone, createChain, finished, quickChain, signedIn, submitRun, synthCapture, uploadCapture, waitForRun } from '../api/runs-helpers';
-
-const chromiumPath = '/usr/bin/chromium';
-const hasChromium = existsSync(chromiumPath);
-const shotsDir = process.env.QUADRILLE_SHOTS_DIR;
 
 // Twelve 40 Msps cf32 captures whose size grows with their number, so "largest first" is known.
 const SWEEPS = 12;
@@ -44,13 +39,8 @@ describe.skipIf(!hasChromium)('list state in the URL', { timeout: 180_000 }, () 
     const failing = await submitRun(engineer, await createChain(engineer, blindIqChain()), sameIq);
     expect((await waitForRun(engineer, failing.id, finished)).status).toBe('failed');
 
-    browser = await chromium.launch({
-      executablePath: chromiumPath,
-      headless: true,
-      args: ['--no-sandbox', '--disable-gpu', '--disable-dev-shm-usage', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
-    });
-    context = await browser.newContext({ viewport: { width: 1280, height: 900 }, baseURL: server.baseUrl });
-    await context.addCookies([...engineer.cookies].map(([name, value]) => ({ name, value, url: server.baseUrl })));
+    browser = await launchChromium();
+    context = await openContext(browser, server.baseUrl, { session: engineer });
     page = await context.newPage();
   }, 120_000);
 
@@ -60,25 +50,13 @@ describe.skipIf(!hasChromium)('list state in the URL', { timeout: 180_000 }, () 
     await server?.stop();
   });
 
-  async function hydrated(): Promise<void> {
-    await page.waitForFunction(() => document.querySelector('astro-island[ssr]') === null);
-  }
+  const hydrated = () => islandsHydrated(page);
 
   /** The query string of the page, parsed, for comparing without caring about order or encoding. */
   const query = () => Object.fromEntries(new URL(page.url()).searchParams);
 
-  async function shoot(name: string): Promise<void> {
-    if (!shotsDir) return;
-    mkdirSync(shotsDir, { recursive: true });
-    // From the top: a full-page shot of a scrolled page draws the sticky header mid-page.
-    await page.evaluate(() => window.scrollTo(0, 0));
-    for (const scheme of ['light', 'dark'] as const) {
-      await page.emulateMedia({ colorScheme: scheme });
-      await page.waitForTimeout(300);
-      await page.screenshot({ path: join(shotsDir, `${name}-1280-${scheme}.png`), fullPage: true });
-    }
-    await page.emulateMedia({ colorScheme: 'light' });
-  }
+  /** Screenshots at 1280 px, light and dark (only with QUADRILLE_SHOTS_DIR). */
+  const shoot = (name: string) => shootPage(page, name);
 
   describe('captures', () => {
     const table = () => page.getByTestId('captures-table');
