@@ -3,7 +3,7 @@ import { buttonSecondary, input, label } from '../ui';
 import type { Capture } from '../captures/types';
 import { chainsApi, type Chain, type Revision } from '../chains/api';
 import { submitRuns } from './api';
-import { DialogShell } from './DialogShell';
+import { DialogShell } from '../DialogShell';
 import { runBlocker } from './run-check';
 import { utcMinute } from './format';
 
@@ -100,6 +100,7 @@ function RunChainDialog({ capture, onClose }: RunChainProps & { onClose: () => v
       confirmDisabled={!chain || revision === null || Boolean(blocker)}
       busy={busy}
       error={error}
+      confirmTestId="run-dialog-submit"
       onConfirm={() => void submit()}
       onClose={onClose}
     >

@@ -5,7 +5,7 @@ import { fetchCaptureList } from '../captures/api';
 import { LAYOUT_LABELS, type Capture } from '../captures/types';
 import { chainsApi } from '../chains/api';
 import { submitRuns } from './api';
-import { DialogShell } from './DialogShell';
+import { DialogShell } from '../DialogShell';
 import { runBlocker } from './run-check';
 
 export interface RunOnCapturesProps {
@@ -127,6 +127,7 @@ function RunOnCapturesDialog({ chainId, chainName, revision, unsavedEdits, onClo
       confirmDisabled={count === 0}
       busy={busy}
       error={error}
+      confirmTestId="run-dialog-submit"
       onConfirm={() => void submit()}
       onClose={onClose}
     >
