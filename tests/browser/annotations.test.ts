@@ -4,34 +4,22 @@
  * across a reload, edits it, gets bad values refused beside their field with nothing saved,
  * marks one by dragging a box on the spectrogram, and deletes it; an operator only reads.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { startServer, type TestServer } from '../helpers/server';
-import { hasChromium, launchChromium, OneTab } from '../helpers/browser';
+import { beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { browserSuite, hasChromium } from '../helpers/browser';
 
 // Demo capture owned by the demo engineer: complex I/Q, 4 Msps for 0.25 s around 2.412 GHz (src/dsp/synth/demo.ts).
 const captureName = 'Saltmarsh rev A: node beacon, bench 1';
 
 describe.skipIf(!hasChromium)('capture annotations in a browser', { timeout: 180_000 }, () => {
-  let server: TestServer;
-  let browser: Browser;
-  let tabs: OneTab;
+  const suite = browserSuite();
   let captureId: string;
 
   beforeAll(async () => {
-    server = await startServer();
-    captureId = (await server.db('captures').where({ name: captureName }).first('id')).id;
-    browser = await launchChromium();
-    tabs = new OneTab(browser, server.baseUrl);
+    captureId = (await suite.server.db('captures').where({ name: captureName }).first('id')).id;
   });
 
-  afterAll(async () => {
-    await tabs?.close();
-    await browser?.close();
-    await server?.stop();
-  });
-
-  const pageAs = (email: string) => tabs.pageAs(email);
+  const pageAs = (email: string) => suite.tabs.pageAs(email);
 
   /** Opens the capture page and waits until the spectrogram is drawn. */
   async function openCapture(page: Page): Promise<void> {
@@ -40,7 +28,7 @@ describe.skipIf(!hasChromium)('capture annotations in a browser', { timeout: 180
   }
 
   const count = async (page: Page) => (await page.getByTestId('annotations-count').textContent())?.trim();
-  const stored = async () => JSON.parse((await server.db('captures').where({ id: captureId }).first('annotations')).annotations ?? '[]');
+  const stored = async () => JSON.parse((await suite.server.db('captures').where({ id: captureId }).first('annotations')).annotations ?? '[]');
   /** The dotted boxes Plotly draws on the spectrogram (layout shapes), in axis units (MHz, ms). */
   const boxes = (page: Page) =>
     page.evaluate(() => {

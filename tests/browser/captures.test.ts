@@ -8,31 +8,22 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
-import { startServer, type TestServer } from '../helpers/server';
-import { hasChromium, hydrated, launchChromium, OneTab } from '../helpers/browser';
+import type { Page } from 'playwright-core';
+import { browserSuite, hasChromium, hydrated } from '../helpers/browser';
 
 describe.skipIf(!hasChromium)('captures in a browser', { timeout: 120_000 }, () => {
-  let server: TestServer;
-  let browser: Browser;
-  let tabs: OneTab;
+  const suite = browserSuite();
   let files: string;
 
-  beforeAll(async () => {
-    server = await startServer();
+  beforeAll(() => {
     files = mkdtempSync(join(tmpdir(), 'quadrille-upload-'));
-    browser = await launchChromium();
-    tabs = new OneTab(browser, server.baseUrl);
   });
 
-  afterAll(async () => {
-    await tabs?.close();
-    await browser?.close();
-    await server?.stop();
+  afterAll(() => {
     if (files) rmSync(files, { recursive: true, force: true });
   });
 
-  const pageAs = (email: string) => tabs.pageAs(email);
+  const pageAs = (email: string) => suite.tabs.pageAs(email);
 
   /**
    * Fills an input and checks it holds exactly `text`: React may still be attaching to the
@@ -122,7 +113,7 @@ describe.skipIf(!hasChromium)('captures in a browser', { timeout: 120_000 }, () 
     expect(await done.textContent()).toContain('Bench tone, raw upload');
     await expect.poll(() => rowNames(page), { timeout: 15_000 }).toContain('Bench tone, raw upload');
 
-    const stored = await server.db('captures').where({ name: 'Bench tone, raw upload' }).first();
+    const stored = await suite.server.db('captures').where({ name: 'Bench tone, raw upload' }).first();
     expect(Number(stored.byte_size)).toBe(samples.byteLength);
     expect(stored.sample_rate).toBe(1e6);
     expect(stored.center_frequency).toBe(2.412e9);
@@ -151,7 +142,7 @@ describe.skipIf(!hasChromium)('captures in a browser', { timeout: 120_000 }, () 
     await page.getByLabel('Notes').fill('Reference tone for the bench.');
     await page.getByRole('button', { name: 'Save changes' }).click();
     await page.getByText('Saved.').waitFor();
-    const stored = await server.db('captures').where({ name: 'Bench tone, synthesized' }).first();
+    const stored = await suite.server.db('captures').where({ name: 'Bench tone, synthesized' }).first();
     expect(stored.notes).toBe('Reference tone for the bench.');
     expect(stored.source).toBe('synthesized');
   });

@@ -3,10 +3,9 @@
  * sign-in for each role, navigation by role, the 403 and 404 pages, the remembered theme,
  * errors beside their field, sign-out and the skip link.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { startServer, type TestServer } from '../helpers/server';
-import { demoPassword, hasChromium, hydrated, launchChromium, OneTab, openContext, signInWithForm } from '../helpers/browser';
+import { describe, expect, it } from 'vitest';
+import type { BrowserContext, Page } from 'playwright-core';
+import { browserSuite, demoPassword, hasChromium, hydrated, signInWithForm } from '../helpers/browser';
 
 const accounts = [
   { email: 'admin@saltmarsh.test', role: 'Admin', seesAdmin: true },
@@ -16,21 +15,7 @@ const accounts = [
 
 // A loaded two-core machine can take several seconds per sign-in (argon2 and a cold page).
 describe.skipIf(!hasChromium)('application frame in a browser', { timeout: 60_000 }, () => {
-  let server: TestServer;
-  let browser: Browser;
-  let tabs: OneTab;
-
-  beforeAll(async () => {
-    server = await startServer();
-    browser = await launchChromium();
-    tabs = new OneTab(browser, server.baseUrl);
-  });
-
-  afterAll(async () => {
-    await tabs?.close();
-    await browser?.close();
-    await server?.stop();
-  });
+  const suite = browserSuite();
 
   // Cookies of each account once signed in through the form, so later tests skip the argon2 wait.
   const signedIn = new Map<string, Awaited<ReturnType<BrowserContext['storageState']>>>();
@@ -39,7 +24,7 @@ describe.skipIf(!hasChromium)('application frame in a browser', { timeout: 60_00
   async function freshPage(email?: string): Promise<Page> {
     const storageState = email ? signedIn.get(email) : undefined;
     if (email && !storageState) throw new Error(`${email} has not signed in through the form yet`);
-    return tabs.open({ viewport: { width: 1280, height: 800 }, storageState });
+    return suite.tabs.open({ viewport: { width: 1280, height: 800 }, storageState });
   }
 
   async function sectionNames(page: Page): Promise<string[]> {
@@ -51,11 +36,11 @@ describe.skipIf(!hasChromium)('application frame in a browser', { timeout: 60_00
     it(`signs in ${account.email} and shows the navigation of the role`, async () => {
       const page = await freshPage();
       await signInWithForm(page, account.email);
-      await page.waitForURL(server.baseUrl + '/');
+      await page.waitForURL(suite.server.baseUrl + '/');
       const expected = account.seesAdmin ? ['Captures', 'Chains', 'Runs', 'Admin'] : ['Captures', 'Chains', 'Runs'];
       expect(await sectionNames(page)).toEqual(expected);
       await expect.poll(() => page.getByTestId('user-menu-button').textContent()).toContain(account.role);
-      signedIn.set(account.email, await tabs.context!.storageState());
+      signedIn.set(account.email, await suite.tabs.context!.storageState());
     });
   }
 
@@ -67,7 +52,7 @@ describe.skipIf(!hasChromium)('application frame in a browser', { timeout: 60_00
     await page.getByLabel('E-mail').fill('engineer@saltmarsh.test');
     await page.getByLabel('Password').fill(demoPassword);
     await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.waitForURL(server.baseUrl + '/runs');
+    await page.waitForURL(suite.server.baseUrl + '/runs');
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Runs');
   });
 
@@ -129,11 +114,11 @@ describe.skipIf(!hasChromium)('application frame in a browser', { timeout: 60_00
   it('signs out from the user menu and returns to sign-in', async () => {
     const page = await freshPage();
     await signInWithForm(page, 'engineer@saltmarsh.test');
-    await page.waitForURL(server.baseUrl + '/');
+    await page.waitForURL(suite.server.baseUrl + '/');
     await hydrated(page);
     await page.getByTestId('user-menu-button').click();
     await page.getByRole('button', { name: 'Sign out' }).click();
-    await page.waitForURL(server.baseUrl + '/sign-in');
+    await page.waitForURL(suite.server.baseUrl + '/sign-in');
     await page.goto('/captures');
     expect(new URL(page.url()).pathname).toBe('/sign-in');
   });
@@ -149,22 +134,10 @@ describe.skipIf(!hasChromium)('application frame in a browser', { timeout: 60_00
 });
 
 describe.skipIf(!hasChromium)('first run without demo accounts', { timeout: 60_000 }, () => {
-  let server: TestServer;
-  let browser: Browser;
-
-  beforeAll(async () => {
-    server = await startServer({ demo: false });
-    browser = await launchChromium();
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-    await server?.stop();
-  });
+  const suite = browserSuite({ demo: false });
 
   it('offers to create the admin account on the sign-in page and signs it in', async () => {
-    const context = await openContext(browser, server.baseUrl, { viewport: { width: 1280, height: 800 } });
-    const page = await context.newPage();
+    const page = await suite.tabs.open({ viewport: { width: 1280, height: 800 } });
     await page.goto('/');
     expect(new URL(page.url()).pathname).toBe('/sign-in');
     await page.locator('form[data-ready]').waitFor();
@@ -175,9 +148,8 @@ describe.skipIf(!hasChromium)('first run without demo accounts', { timeout: 60_0
     expect(await page.locator('[data-field-error="password"]').textContent()).toMatch(/10 characters/);
     await page.getByLabel('Password').fill('a-long-enough-password');
     await page.getByRole('button', { name: 'Create the admin account' }).click();
-    await page.waitForURL(server.baseUrl + '/');
+    await page.waitForURL(suite.server.baseUrl + '/');
     const names = await page.getByRole('navigation', { name: 'Sections' }).getByRole('link').allTextContents();
     expect(names.map((name) => name.trim())).toContain('Admin');
-    await context.close();
   });
 });

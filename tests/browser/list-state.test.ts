@@ -5,11 +5,10 @@
  *
  * Set QUADRILLE_SHOTS_DIR to also save screenshots of both lists at 1280 px, light and dark.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { startServer, type TestServer } from '../helpers/server';
+import { beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
 import type { Client } from '../helpers/client';
-import { hasChromium, hydrated as islandsHydrated, launchChromium, openContext, shoot as shootPage } from '../helpers/browser';
+import { browserSuite, hasChromium, hydrated as islandsHydrated, shoot as shootPage } from '../helpers/browser';
 import { blindIqChain, complexTone, createChain, finished, quickChain, signedIn, submitRun, synthCapture, uploadCapture, waitForRun } from '../api/runs-helpers';
 
 // Twelve 40 Msps cf32 captures whose size grows with their number, so "largest first" is known.
@@ -19,15 +18,12 @@ const sweepName = (n: number) => `Beacon sweep ${String(n).padStart(2, '0')}`;
 const CACHED_REPEATS = 26;
 
 describe.skipIf(!hasChromium)('list state in the URL', { timeout: 180_000 }, () => {
-  let server: TestServer;
-  let browser: Browser;
-  let context: BrowserContext;
+  const suite = browserSuite();
   let page: Page;
   let engineer: Client;
 
   beforeAll(async () => {
-    server = await startServer();
-    engineer = await signedIn(server.baseUrl, 'engineer@saltmarsh.test');
+    engineer = await signedIn(suite.server.baseUrl, 'engineer@saltmarsh.test');
     for (let n = 1; n <= SWEEPS; n++) await uploadCapture(engineer, sweepName(n), complexTone(256 * n, 40e6, 1e6, { seed: n }), 40e6);
 
     const capture = await synthCapture(engineer, 'List check tone', 0.01);
@@ -39,16 +35,8 @@ describe.skipIf(!hasChromium)('list state in the URL', { timeout: 180_000 }, () 
     const failing = await submitRun(engineer, await createChain(engineer, blindIqChain()), sameIq);
     expect((await waitForRun(engineer, failing.id, finished)).status).toBe('failed');
 
-    browser = await launchChromium();
-    context = await openContext(browser, server.baseUrl, { session: engineer });
-    page = await context.newPage();
+    page = await suite.tabs.open({ session: engineer });
   }, 120_000);
-
-  afterAll(async () => {
-    await context?.close();
-    await browser?.close();
-    await server?.stop();
-  });
 
   const hydrated = () => islandsHydrated(page);
 

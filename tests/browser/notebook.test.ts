@@ -5,31 +5,19 @@
  * the JSON view and save a revision. Prints the time from an edit to the updated preview on the
  * 2^18-sample head.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { startServer, type TestServer } from '../helpers/server';
-import { hasChromium, launchChromium, openContext, signInWithForm } from '../helpers/browser';
+import { beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { browserSuite, hasChromium, signInWithForm } from '../helpers/browser';
 
 // A loaded two-core machine: sign-in (argon2), the first Plotly load and the head fetch take seconds.
 describe.skipIf(!hasChromium)('chain notebook in a browser', { timeout: 300_000 }, () => {
-  let server: TestServer;
-  let browser: Browser;
-  let context: BrowserContext;
+  const suite = browserSuite();
   let page: Page;
 
   beforeAll(async () => {
-    server = await startServer();
-    browser = await launchChromium();
-    context = await openContext(browser, server.baseUrl, { viewport: { width: 1440, height: 900 } });
-    page = await context.newPage();
+    page = await suite.tabs.open({ viewport: { width: 1440, height: 900 } });
     // Other work on the machine can stall the page for many seconds while Plotly compiles.
     page.setDefaultTimeout(90_000);
-  }, 120_000);
-
-  afterAll(async () => {
-    await context?.close();
-    await browser?.close();
-    await server?.stop();
   });
 
   const stage = (id: string) => page.locator(`[data-stage-id="${id}"]`);

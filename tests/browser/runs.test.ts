@@ -7,10 +7,9 @@
  * Set QUADRILLE_SHOTS_DIR to also save screenshots of each screen at 1280 and 2560 px, light and dark.
  */
 import { readFileSync } from 'node:fs';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { startServer, type TestServer } from '../helpers/server';
-import { hasChromium, launchChromium, openContext, shoot as shootPage, signInWithForm } from '../helpers/browser';
+import { beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { browserSuite, hasChromium, shoot as shootPage, signInWithForm } from '../helpers/browser';
 
 const chainName = 'Front-end balance check';
 const revA = /Saltmarsh rev A/;
@@ -18,23 +17,12 @@ const revB = /Saltmarsh rev B/;
 
 // Runs on a loaded two-core machine take seconds each; the whole flow gets a few minutes.
 describe.skipIf(!hasChromium)('runs in a browser', { timeout: 180_000 }, () => {
-  let server: TestServer;
-  let browser: Browser;
-  let context: BrowserContext;
+  const suite = browserSuite({ env: { QUADRILLE_RUN_CONCURRENCY: '1' } });
   let page: Page;
   let runIds: string[] = [];
 
   beforeAll(async () => {
-    server = await startServer({ env: { QUADRILLE_RUN_CONCURRENCY: '1' } });
-    browser = await launchChromium();
-    context = await openContext(browser, server.baseUrl, { acceptDownloads: true });
-    page = await context.newPage();
-  }, 60_000);
-
-  afterAll(async () => {
-    await context?.close();
-    await browser?.close();
-    await server?.stop();
+    page = await suite.tabs.open({ acceptDownloads: true });
   });
 
   /** Screenshots of the page as it is at 1280 and 2560 px, light and dark (only with QUADRILLE_SHOTS_DIR); plots resize and re-theme on the next frames. */
@@ -42,11 +30,11 @@ describe.skipIf(!hasChromium)('runs in a browser', { timeout: 180_000 }, () => {
 
   it('signs the operator in', async () => {
     await signInWithForm(page, 'operator@saltmarsh.test');
-    await page.waitForURL(server.baseUrl + '/');
+    await page.waitForURL(suite.server.baseUrl + '/');
   });
 
   it('reruns the demo chain on the rev A and rev B captures from the chain page', async () => {
-    const chain = await server.db('chains').where({ name: chainName }).first('id');
+    const chain = await suite.server.db('chains').where({ name: chainName }).first('id');
     expect(chain, 'the demo chain is seeded').toBeTruthy();
     await page.goto(`/chains/${chain.id}`);
     await page.getByTestId('run-on-captures').click();
@@ -55,7 +43,7 @@ describe.skipIf(!hasChromium)('runs in a browser', { timeout: 180_000 }, () => {
     await dialog.getByRole('checkbox', { name: revB }).check();
     await shoot('dialog-run-on-captures');
     await dialog.getByTestId('run-dialog-submit').click();
-    await page.waitForURL(server.baseUrl + '/runs');
+    await page.waitForURL(suite.server.baseUrl + '/runs');
   });
 
   it('shows both runs finish on the runs list', async () => {
@@ -147,7 +135,7 @@ describe.skipIf(!hasChromium)('runs in a browser', { timeout: 180_000 }, () => {
   });
 
   it('runs a chosen chain from a capture page and follows it to its result', async () => {
-    const capture = await server.db('captures').where('name', 'like', 'Saltmarsh rev B%').first('id');
+    const capture = await suite.server.db('captures').where('name', 'like', 'Saltmarsh rev B%').first('id');
     await page.goto(`/captures/${capture.id}`);
     await page.getByTestId('run-chain').click();
     const dialog = page.getByRole('dialog');

@@ -5,10 +5,12 @@
  */
 import { existsSync, mkdirSync } from 'node:fs';
 import { join } from 'node:path';
+import { afterAll, beforeAll } from 'vitest';
 import { chromium, type Browser, type BrowserContext, type BrowserContextOptions, type Page } from 'playwright-core';
 import { demoPassword } from '@/lib/server/seed';
 import { signedIn } from '../api/runs-helpers';
 import type { Client } from './client';
+import { startServer, type StartOptions, type TestServer } from './server';
 
 export { demoPassword };
 
@@ -37,7 +39,7 @@ export interface ContextOptions extends BrowserContextOptions {
 }
 
 /** A new isolated context (own cookies and storage) on `baseUrl`, 1280×900 px unless a viewport is given. */
-export async function openContext(browser: Browser, baseUrl: string, { session, ...options }: ContextOptions = {}): Promise<BrowserContext> {
+async function openContext(browser: Browser, baseUrl: string, { session, ...options }: ContextOptions = {}): Promise<BrowserContext> {
   const context = await browser.newContext({ viewport: { width: 1280, height: 900 }, baseURL: baseUrl, ...options });
   if (session) await context.addCookies([...session.cookies].map(([name, value]) => ({ name, value, url: baseUrl })));
   return context;
@@ -68,6 +70,32 @@ export class OneTab {
     await this.context?.close();
     this.context = null;
   }
+}
+
+export interface BrowserSuite {
+  server: TestServer;
+  browser: Browser;
+  tabs: OneTab;
+}
+
+/**
+ * Registers the set-up and tear-down of a browser suite (call inside `describe`): the built server
+ * with a fresh data folder (demo seed unless told), chromium, and one tab at a time on it. Read
+ * the fields inside hooks and tests, once the set-up has run.
+ */
+export function browserSuite(options: StartOptions = {}): BrowserSuite {
+  const suite = {} as BrowserSuite;
+  beforeAll(async () => {
+    suite.server = await startServer(options);
+    suite.browser = await launchChromium();
+    suite.tabs = new OneTab(suite.browser, suite.server.baseUrl);
+  });
+  afterAll(async () => {
+    await suite.tabs?.close();
+    await suite.browser?.close();
+    await suite.server?.stop();
+  });
+  return suite;
 }
 
 /** Fills and sends the sign-in form once React has attached to it (does not wait for where it leads). */
