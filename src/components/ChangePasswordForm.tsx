@@ -1,28 +1,15 @@
-import { useEffect, useState, type SyntheticEvent } from 'react';
+import { useState, type SyntheticEvent } from 'react';
 import { Field, FormMessage } from './forms/Field';
 import { requestJson } from './forms/api';
+import { MIN_PASSWORD, useFormFields } from './forms/useFormFields';
 import { buttonPrimary } from './ui';
-
-// The server's rule for new passwords; checked here too so the message comes before a round trip.
-const MIN_PASSWORD = 10;
 
 type FieldName = 'currentPassword' | 'newPassword' | 'confirmPassword';
 
 /** Change-password form: posts to /api/account/password and shows each error beside its field. */
 export default function ChangePasswordForm() {
-  const [values, setValues] = useState<Record<FieldName, string>>({ currentPassword: '', newPassword: '', confirmPassword: '' });
-  const [errors, setErrors] = useState<Partial<Record<FieldName, string>>>({});
+  const { values, setValues, setErrors, busy, setBusy, ready, bind } = useFormFields<FieldName>({ currentPassword: '', newPassword: '', confirmPassword: '' });
   const [formMessage, setFormMessage] = useState<{ tone: 'error' | 'ok'; text: string } | null>(null);
-  const [busy, setBusy] = useState(false);
-  const [ready, setReady] = useState(false);
-  useEffect(() => setReady(true), []);
-
-  const bind = (name: FieldName) => ({
-    name,
-    value: values[name],
-    onChange: (e: { target: { value: string } }) => setValues((v) => ({ ...v, [name]: e.target.value })),
-    error: errors[name],
-  });
 
   async function submit(event: SyntheticEvent<HTMLFormElement>) {
     event.preventDefault();

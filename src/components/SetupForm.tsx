@@ -1,28 +1,15 @@
-import { useEffect, useState, type SyntheticEvent } from 'react';
+import { useState, type SyntheticEvent } from 'react';
 import { Field, FormMessage } from './forms/Field';
 import { requestJson } from './forms/api';
+import { MIN_PASSWORD, useFormFields } from './forms/useFormFields';
 import { buttonPrimary } from './ui';
 
 type FieldName = 'email' | 'name' | 'password';
 
-// The server's rule for new passwords; checked here too so the message comes before a round trip.
-const MIN_PASSWORD = 10;
-
 /** First-run form on an installation without accounts: creates the admin via /api/setup and signs it in. */
 export default function SetupForm() {
-  const [values, setValues] = useState<Record<FieldName, string>>({ email: '', name: '', password: '' });
-  const [errors, setErrors] = useState<Partial<Record<FieldName, string>>>({});
+  const { values, setErrors, busy, setBusy, ready, bind } = useFormFields<FieldName>({ email: '', name: '', password: '' });
   const [formError, setFormError] = useState<string | null>(null);
-  const [busy, setBusy] = useState(false);
-  const [ready, setReady] = useState(false);
-  useEffect(() => setReady(true), []);
-
-  const bind = (name: FieldName) => ({
-    name,
-    value: values[name],
-    onChange: (e: { target: { value: string } }) => setValues((v) => ({ ...v, [name]: e.target.value })),
-    error: errors[name],
-  });
 
   async function submit(event: SyntheticEvent<HTMLFormElement>) {
     event.preventDefault();

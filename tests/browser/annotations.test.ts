@@ -4,49 +4,22 @@
  * across a reload, edits it, gets bad values refused beside their field with nothing saved,
  * marks one by dragging a box on the spectrogram, and deletes it; an operator only reads.
  */
-import { existsSync } from 'node:fs';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
-import { startServer, type TestServer } from '../helpers/server';
-import { Client } from '../helpers/client';
+import { beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { browserSuite, hasChromium } from '../helpers/browser';
 
-const chromiumPath = '/usr/bin/chromium';
-const hasChromium = existsSync(chromiumPath);
-const password = 'quadrille-demo';
 // Demo capture owned by the demo engineer: complex I/Q, 4 Msps for 0.25 s around 2.412 GHz (src/dsp/synth/demo.ts).
 const captureName = 'Saltmarsh rev A: node beacon, bench 1';
 
 describe.skipIf(!hasChromium)('capture annotations in a browser', { timeout: 180_000 }, () => {
-  let server: TestServer;
-  let browser: Browser;
-  let context: BrowserContext | null = null;
+  const suite = browserSuite();
   let captureId: string;
 
   beforeAll(async () => {
-    server = await startServer();
-    captureId = (await server.db('captures').where({ name: captureName }).first('id')).id;
-    browser = await chromium.launch({
-      executablePath: chromiumPath,
-      headless: true,
-      args: ['--no-sandbox', '--disable-gpu', '--disable-dev-shm-usage', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
-    });
+    captureId = (await suite.server.db('captures').where({ name: captureName }).first('id')).id;
   });
 
-  afterAll(async () => {
-    await context?.close();
-    await browser?.close();
-    await server?.stop();
-  });
-
-  /** A fresh tab signed in as `email` (session cookie from the sign-in API, as the form would set it). */
-  async function pageAs(email: string): Promise<Page> {
-    await context?.close();
-    const client = new Client(server.baseUrl);
-    expect((await client.signIn(email, password)).status).toBe(200);
-    context = await browser.newContext({ viewport: { width: 1280, height: 900 }, baseURL: server.baseUrl });
-    await context.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: server.baseUrl })));
-    return context.newPage();
-  }
+  const pageAs = (email: string) => suite.tabs.pageAs(email);
 
   /** Opens the capture page and waits until the spectrogram is drawn. */
   async function openCapture(page: Page): Promise<void> {
@@ -55,7 +28,7 @@ describe.skipIf(!hasChromium)('capture annotations in a browser', { timeout: 180
   }
 
   const count = async (page: Page) => (await page.getByTestId('annotations-count').textContent())?.trim();
-  const stored = async () => JSON.parse((await server.db('captures').where({ id: captureId }).first('annotations')).annotations ?? '[]');
+  const stored = async () => JSON.parse((await suite.server.db('captures').where({ id: captureId }).first('annotations')).annotations ?? '[]');
   /** The dotted boxes Plotly draws on the spectrogram (layout shapes), in axis units (MHz, ms). */
   const boxes = (page: Page) =>
     page.evaluate(() => {

@@ -4,54 +4,26 @@
  * balance report, a raw file goes up through the upload panel (surviving a dropped connection),
  * and an operator sees another user's capture read-only.
  */
-import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
-import { startServer, type TestServer } from '../helpers/server';
-import { Client } from '../helpers/client';
-
-const chromiumPath = '/usr/bin/chromium';
-const hasChromium = existsSync(chromiumPath);
-const password = 'quadrille-demo';
+import type { Page } from 'playwright-core';
+import { browserSuite, hasChromium, hydrated } from '../helpers/browser';
 
 describe.skipIf(!hasChromium)('captures in a browser', { timeout: 120_000 }, () => {
-  let server: TestServer;
-  let browser: Browser;
-  let context: BrowserContext | null = null;
+  const suite = browserSuite();
   let files: string;
 
-  beforeAll(async () => {
-    server = await startServer();
+  beforeAll(() => {
     files = mkdtempSync(join(tmpdir(), 'quadrille-upload-'));
-    browser = await chromium.launch({
-      executablePath: chromiumPath,
-      headless: true,
-      args: ['--no-sandbox', '--disable-gpu', '--disable-dev-shm-usage', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
-    });
   });
 
-  afterAll(async () => {
-    await context?.close();
-    await browser?.close();
-    await server?.stop();
+  afterAll(() => {
     if (files) rmSync(files, { recursive: true, force: true });
   });
 
-  /** A fresh tab signed in as `email` (session cookie from the sign-in API, as the form would set it). */
-  async function pageAs(email: string): Promise<Page> {
-    await context?.close();
-    const client = new Client(server.baseUrl);
-    expect((await client.signIn(email, password)).status).toBe(200);
-    context = await browser.newContext({ viewport: { width: 1280, height: 900 }, baseURL: server.baseUrl });
-    await context.addCookies([...client.cookies].map(([name, value]) => ({ name, value, url: server.baseUrl })));
-    return context.newPage();
-  }
-
-  async function hydrated(page: Page): Promise<void> {
-    await page.waitForFunction(() => document.querySelector('astro-island[ssr]') === null);
-  }
+  const pageAs = (email: string) => suite.tabs.pageAs(email);
 
   /**
    * Fills an input and checks it holds exactly `text`: React may still be attaching to the
@@ -141,7 +113,7 @@ describe.skipIf(!hasChromium)('captures in a browser', { timeout: 120_000 }, () 
     expect(await done.textContent()).toContain('Bench tone, raw upload');
     await expect.poll(() => rowNames(page), { timeout: 15_000 }).toContain('Bench tone, raw upload');
 
-    const stored = await server.db('captures').where({ name: 'Bench tone, raw upload' }).first();
+    const stored = await suite.server.db('captures').where({ name: 'Bench tone, raw upload' }).first();
     expect(Number(stored.byte_size)).toBe(samples.byteLength);
     expect(stored.sample_rate).toBe(1e6);
     expect(stored.center_frequency).toBe(2.412e9);
@@ -170,7 +142,7 @@ describe.skipIf(!hasChromium)('captures in a browser', { timeout: 120_000 }, () 
     await page.getByLabel('Notes').fill('Reference tone for the bench.');
     await page.getByRole('button', { name: 'Save changes' }).click();
     await page.getByText('Saved.').waitFor();
-    const stored = await server.db('captures').where({ name: 'Bench tone, synthesized' }).first();
+    const stored = await suite.server.db('captures').where({ name: 'Bench tone, synthesized' }).first();
     expect(stored.notes).toBe('Reference tone for the bench.');
     expect(stored.source).toBe('synthesized');
   });

@@ -3,33 +3,10 @@
  * sign-in for each role, navigation by role, the 403 and 404 pages, the remembered theme,
  * errors beside their field, sign-out and the skip link.
  */
-import { existsSync } from 'node:fs';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
-import { startServer, type TestServer } from '../helpers/server';
+import { describe, expect, it } from 'vitest';
+import type { BrowserContext, Page } from 'playwright-core';
+import { browserSuite, demoPassword, hasChromium, hydrated, signInWithForm } from '../helpers/browser';
 
-const chromiumPath = '/usr/bin/chromium';
-const hasChromium = existsSync(chromiumPath);
-if (!hasChromium) {
-  console.warn(`Skipping the browser tests: ${chromiumPath} is absent. Install it with \`apt-get install -y chromium\` (.ci/run does).`);
-}
-
-// launch() gives every run a fresh temporary profile (user-data dir) of its own.
-const launchOptions = {
-  executablePath: chromiumPath,
-  headless: true,
-  args: [
-    '--no-sandbox',
-    '--disable-gpu',
-    '--disable-dev-shm-usage',
-    '--disable-background-networking',
-    '--disable-component-update',
-    '--disable-sync',
-    '--no-first-run',
-  ],
-};
-
-const password = 'quadrille-demo';
 const accounts = [
   { email: 'admin@saltmarsh.test', role: 'Admin', seesAdmin: true },
   { email: 'engineer@saltmarsh.test', role: 'Engineer', seesAdmin: false },
@@ -38,44 +15,16 @@ const accounts = [
 
 // A loaded two-core machine can take several seconds per sign-in (argon2 and a cold page).
 describe.skipIf(!hasChromium)('application frame in a browser', { timeout: 60_000 }, () => {
-  let server: TestServer;
-  let browser: Browser;
-  let context: BrowserContext | null = null;
-
-  beforeAll(async () => {
-    server = await startServer();
-    browser = await chromium.launch(launchOptions);
-  });
-
-  afterAll(async () => {
-    await context?.close();
-    await browser?.close();
-    await server?.stop();
-  });
+  const suite = browserSuite();
 
   // Cookies of each account once signed in through the form, so later tests skip the argon2 wait.
   const signedIn = new Map<string, Awaited<ReturnType<BrowserContext['storageState']>>>();
 
   /** A new isolated tab (own cookies and storage) at a laptop-sized viewport, signed in as `email` if given. */
   async function freshPage(email?: string): Promise<Page> {
-    await context?.close();
     const storageState = email ? signedIn.get(email) : undefined;
     if (email && !storageState) throw new Error(`${email} has not signed in through the form yet`);
-    context = await browser.newContext({ viewport: { width: 1280, height: 800 }, baseURL: server.baseUrl, storageState });
-    return context.newPage();
-  }
-
-  async function signIn(page: Page, email: string, secret = password): Promise<void> {
-    await page.goto('/sign-in');
-    await page.locator('form[data-ready]').waitFor();
-    await page.getByLabel('E-mail').fill(email);
-    await page.getByLabel('Password').fill(secret);
-    await page.getByRole('button', { name: 'Sign in' }).click();
-  }
-
-  /** Waits until every island on the page has hydrated (Astro drops the `ssr` attribute then). */
-  async function hydrated(page: Page): Promise<void> {
-    await page.waitForFunction(() => document.querySelector('astro-island[ssr]') === null);
+    return suite.tabs.open({ viewport: { width: 1280, height: 800 }, storageState });
   }
 
   async function sectionNames(page: Page): Promise<string[]> {
@@ -86,12 +35,12 @@ describe.skipIf(!hasChromium)('application frame in a browser', { timeout: 60_00
   for (const account of accounts) {
     it(`signs in ${account.email} and shows the navigation of the role`, async () => {
       const page = await freshPage();
-      await signIn(page, account.email);
-      await page.waitForURL(server.baseUrl + '/');
+      await signInWithForm(page, account.email);
+      await page.waitForURL(suite.server.baseUrl + '/');
       const expected = account.seesAdmin ? ['Captures', 'Chains', 'Runs', 'Admin'] : ['Captures', 'Chains', 'Runs'];
       expect(await sectionNames(page)).toEqual(expected);
       await expect.poll(() => page.getByTestId('user-menu-button').textContent()).toContain(account.role);
-      signedIn.set(account.email, await context!.storageState());
+      signedIn.set(account.email, await suite.tabs.context!.storageState());
     });
   }
 
@@ -101,9 +50,9 @@ describe.skipIf(!hasChromium)('application frame in a browser', { timeout: 60_00
     expect(new URL(page.url()).pathname).toBe('/sign-in');
     await page.locator('form[data-ready]').waitFor();
     await page.getByLabel('E-mail').fill('engineer@saltmarsh.test');
-    await page.getByLabel('Password').fill(password);
+    await page.getByLabel('Password').fill(demoPassword);
     await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.waitForURL(server.baseUrl + '/runs');
+    await page.waitForURL(suite.server.baseUrl + '/runs');
     await expect.poll(() => page.getByRole('heading', { level: 1 }).textContent()).toBe('Runs');
   });
 
@@ -145,7 +94,7 @@ describe.skipIf(!hasChromium)('application frame in a browser', { timeout: 60_00
 
   it('shows a wrong password error beside the password field and stays on sign-in', async () => {
     const page = await freshPage();
-    await signIn(page, 'engineer@saltmarsh.test', 'not-the-password');
+    await signInWithForm(page, 'engineer@saltmarsh.test', 'not-the-password');
     const error = page.locator('[data-field-error="password"]');
     await error.waitFor();
     expect(await error.textContent()).toMatch(/wrong/i);
@@ -164,12 +113,12 @@ describe.skipIf(!hasChromium)('application frame in a browser', { timeout: 60_00
 
   it('signs out from the user menu and returns to sign-in', async () => {
     const page = await freshPage();
-    await signIn(page, 'engineer@saltmarsh.test');
-    await page.waitForURL(server.baseUrl + '/');
+    await signInWithForm(page, 'engineer@saltmarsh.test');
+    await page.waitForURL(suite.server.baseUrl + '/');
     await hydrated(page);
     await page.getByTestId('user-menu-button').click();
     await page.getByRole('button', { name: 'Sign out' }).click();
-    await page.waitForURL(server.baseUrl + '/sign-in');
+    await page.waitForURL(suite.server.baseUrl + '/sign-in');
     await page.goto('/captures');
     expect(new URL(page.url()).pathname).toBe('/sign-in');
   });
@@ -185,22 +134,10 @@ describe.skipIf(!hasChromium)('application frame in a browser', { timeout: 60_00
 });
 
 describe.skipIf(!hasChromium)('first run without demo accounts', { timeout: 60_000 }, () => {
-  let server: TestServer;
-  let browser: Browser;
-
-  beforeAll(async () => {
-    server = await startServer({ demo: false });
-    browser = await chromium.launch(launchOptions);
-  });
-
-  afterAll(async () => {
-    await browser?.close();
-    await server?.stop();
-  });
+  const suite = browserSuite({ demo: false });
 
   it('offers to create the admin account on the sign-in page and signs it in', async () => {
-    const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, baseURL: server.baseUrl });
-    const page = await context.newPage();
+    const page = await suite.tabs.open({ viewport: { width: 1280, height: 800 } });
     await page.goto('/');
     expect(new URL(page.url()).pathname).toBe('/sign-in');
     await page.locator('form[data-ready]').waitFor();
@@ -211,9 +148,8 @@ describe.skipIf(!hasChromium)('first run without demo accounts', { timeout: 60_0
     expect(await page.locator('[data-field-error="password"]').textContent()).toMatch(/10 characters/);
     await page.getByLabel('Password').fill('a-long-enough-password');
     await page.getByRole('button', { name: 'Create the admin account' }).click();
-    await page.waitForURL(server.baseUrl + '/');
+    await page.waitForURL(suite.server.baseUrl + '/');
     const names = await page.getByRole('navigation', { name: 'Sections' }).getByRole('link').allTextContents();
     expect(names.map((name) => name.trim())).toContain('Admin');
-    await context.close();
   });
 });

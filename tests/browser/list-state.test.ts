@@ -5,17 +5,11 @@
  *
  * Set QUADRILLE_SHOTS_DIR to also save screenshots of both lists at 1280 px, light and dark.
  */
-import { existsSync, mkdirSync } from 'node:fs';
-import { join } from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
-import { startServer, type TestServer } from '../helpers/server';
+import { beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
 import type { Client } from '../helpers/client';
+import { browserSuite, hasChromium, hydrated as islandsHydrated, shoot as shootPage } from '../helpers/browser';
 import { blindIqChain, complexTone, createChain, finished, quickChain, signedIn, submitRun, synthCapture, uploadCapture, waitForRun } from '../api/runs-helpers';
-
-const chromiumPath = '/usr/bin/chromium';
-const hasChromium = existsSync(chromiumPath);
-const shotsDir = process.env.QUADRILLE_SHOTS_DIR;
 
 // Twelve 40 Msps cf32 captures whose size grows with their number, so "largest first" is known.
 const SWEEPS = 12;
@@ -24,15 +18,12 @@ const sweepName = (n: number) => `Beacon sweep ${String(n).padStart(2, '0')}`;
 const CACHED_REPEATS = 26;
 
 describe.skipIf(!hasChromium)('list state in the URL', { timeout: 180_000 }, () => {
-  let server: TestServer;
-  let browser: Browser;
-  let context: BrowserContext;
+  const suite = browserSuite();
   let page: Page;
   let engineer: Client;
 
   beforeAll(async () => {
-    server = await startServer();
-    engineer = await signedIn(server.baseUrl, 'engineer@saltmarsh.test');
+    engineer = await signedIn(suite.server.baseUrl, 'engineer@saltmarsh.test');
     for (let n = 1; n <= SWEEPS; n++) await uploadCapture(engineer, sweepName(n), complexTone(256 * n, 40e6, 1e6, { seed: n }), 40e6);
 
     const capture = await synthCapture(engineer, 'List check tone', 0.01);
@@ -44,41 +35,16 @@ describe.skipIf(!hasChromium)('list state in the URL', { timeout: 180_000 }, () 
     const failing = await submitRun(engineer, await createChain(engineer, blindIqChain()), sameIq);
     expect((await waitForRun(engineer, failing.id, finished)).status).toBe('failed');
 
-    browser = await chromium.launch({
-      executablePath: chromiumPath,
-      headless: true,
-      args: ['--no-sandbox', '--disable-gpu', '--disable-dev-shm-usage', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
-    });
-    context = await browser.newContext({ viewport: { width: 1280, height: 900 }, baseURL: server.baseUrl });
-    await context.addCookies([...engineer.cookies].map(([name, value]) => ({ name, value, url: server.baseUrl })));
-    page = await context.newPage();
+    page = await suite.tabs.open({ session: engineer });
   }, 120_000);
 
-  afterAll(async () => {
-    await context?.close();
-    await browser?.close();
-    await server?.stop();
-  });
-
-  async function hydrated(): Promise<void> {
-    await page.waitForFunction(() => document.querySelector('astro-island[ssr]') === null);
-  }
+  const hydrated = () => islandsHydrated(page);
 
   /** The query string of the page, parsed, for comparing without caring about order or encoding. */
   const query = () => Object.fromEntries(new URL(page.url()).searchParams);
 
-  async function shoot(name: string): Promise<void> {
-    if (!shotsDir) return;
-    mkdirSync(shotsDir, { recursive: true });
-    // From the top: a full-page shot of a scrolled page draws the sticky header mid-page.
-    await page.evaluate(() => window.scrollTo(0, 0));
-    for (const scheme of ['light', 'dark'] as const) {
-      await page.emulateMedia({ colorScheme: scheme });
-      await page.waitForTimeout(300);
-      await page.screenshot({ path: join(shotsDir, `${name}-1280-${scheme}.png`), fullPage: true });
-    }
-    await page.emulateMedia({ colorScheme: 'light' });
-  }
+  /** Screenshots at 1280 px, light and dark (only with QUADRILLE_SHOTS_DIR). */
+  const shoot = (name: string) => shootPage(page, name);
 
   describe('captures', () => {
     const table = () => page.getByTestId('captures-table');

@@ -5,39 +5,19 @@
  * the JSON view and save a revision. Prints the time from an edit to the updated preview on the
  * 2^18-sample head.
  */
-import { existsSync } from 'node:fs';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
-import { startServer, type TestServer } from '../helpers/server';
-
-const chromiumPath = '/usr/bin/chromium';
-const hasChromium = existsSync(chromiumPath);
-if (!hasChromium) console.warn(`Skipping the notebook browser test: ${chromiumPath} is absent (apt-get install -y chromium).`);
+import { beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { browserSuite, hasChromium, signInWithForm } from '../helpers/browser';
 
 // A loaded two-core machine: sign-in (argon2), the first Plotly load and the head fetch take seconds.
 describe.skipIf(!hasChromium)('chain notebook in a browser', { timeout: 300_000 }, () => {
-  let server: TestServer;
-  let browser: Browser;
-  let context: BrowserContext;
+  const suite = browserSuite();
   let page: Page;
 
   beforeAll(async () => {
-    server = await startServer();
-    browser = await chromium.launch({
-      executablePath: chromiumPath,
-      headless: true,
-      args: ['--no-sandbox', '--disable-gpu', '--disable-dev-shm-usage', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
-    });
-    context = await browser.newContext({ viewport: { width: 1440, height: 900 }, baseURL: server.baseUrl });
-    page = await context.newPage();
+    page = await suite.tabs.open({ viewport: { width: 1440, height: 900 } });
     // Other work on the machine can stall the page for many seconds while Plotly compiles.
     page.setDefaultTimeout(90_000);
-  }, 120_000);
-
-  afterAll(async () => {
-    await context?.close();
-    await browser?.close();
-    await server?.stop();
   });
 
   const stage = (id: string) => page.locator(`[data-stage-id="${id}"]`);
@@ -79,11 +59,7 @@ describe.skipIf(!hasChromium)('chain notebook in a browser', { timeout: 300_000 
   }
 
   it('signs in as an engineer and creates a chain', async () => {
-    await page.goto('/sign-in');
-    await page.locator('form[data-ready]').waitFor();
-    await page.getByLabel('E-mail').fill('engineer@saltmarsh.test');
-    await page.getByLabel('Password').fill('quadrille-demo');
-    await page.getByRole('button', { name: 'Sign in' }).click();
+    await signInWithForm(page, 'engineer@saltmarsh.test');
     await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'));
 
     await page.goto('/chains');

@@ -6,84 +6,35 @@
  *
  * Set QUADRILLE_SHOTS_DIR to also save screenshots of each screen at 1280 and 2560 px, light and dark.
  */
-import { existsSync, mkdirSync, readFileSync } from 'node:fs';
-import { join } from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
-import { startServer, type TestServer } from '../helpers/server';
+import { readFileSync } from 'node:fs';
+import { beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { browserSuite, hasChromium, shoot as shootPage, signInWithForm } from '../helpers/browser';
 
-const chromiumPath = '/usr/bin/chromium';
-const hasChromium = existsSync(chromiumPath);
-if (!hasChromium) console.warn(`Skipping the runs browser test: ${chromiumPath} is absent (apt-get install -y chromium).`);
-
-const launchOptions = {
-  executablePath: chromiumPath,
-  headless: true,
-  args: [
-    '--no-sandbox',
-    '--disable-gpu',
-    '--disable-dev-shm-usage',
-    '--disable-background-networking',
-    '--disable-component-update',
-    '--disable-sync',
-    '--no-first-run',
-  ],
-};
-
-const shotsDir = process.env.QUADRILLE_SHOTS_DIR;
 const chainName = 'Front-end balance check';
 const revA = /Saltmarsh rev A/;
 const revB = /Saltmarsh rev B/;
 
 // Runs on a loaded two-core machine take seconds each; the whole flow gets a few minutes.
 describe.skipIf(!hasChromium)('runs in a browser', { timeout: 180_000 }, () => {
-  let server: TestServer;
-  let browser: Browser;
-  let context: BrowserContext;
+  const suite = browserSuite({ env: { QUADRILLE_RUN_CONCURRENCY: '1' } });
   let page: Page;
   let runIds: string[] = [];
 
   beforeAll(async () => {
-    server = await startServer({ env: { QUADRILLE_RUN_CONCURRENCY: '1' } });
-    browser = await chromium.launch(launchOptions);
-    context = await browser.newContext({ viewport: { width: 1280, height: 900 }, baseURL: server.baseUrl, acceptDownloads: true });
-    page = await context.newPage();
-  }, 60_000);
-
-  afterAll(async () => {
-    await context?.close();
-    await browser?.close();
-    await server?.stop();
+    page = await suite.tabs.open({ acceptDownloads: true });
   });
 
-  /** Screenshots of the page as it is at 1280 and 2560 px, light and dark (only with QUADRILLE_SHOTS_DIR). */
-  async function shoot(name: string): Promise<void> {
-    if (!shotsDir) return;
-    mkdirSync(shotsDir, { recursive: true });
-    for (const width of [1280, 2560]) {
-      for (const scheme of ['light', 'dark'] as const) {
-        await page.setViewportSize({ width, height: width === 1280 ? 900 : 1400 });
-        await page.emulateMedia({ colorScheme: scheme });
-        // Plots resize and re-theme on the next frames.
-        await page.waitForTimeout(800);
-        await page.screenshot({ path: join(shotsDir, `${name}-${width}-${scheme}.png`), fullPage: true });
-      }
-    }
-    await page.setViewportSize({ width: 1280, height: 900 });
-    await page.emulateMedia({ colorScheme: 'light' });
-  }
+  /** Screenshots of the page as it is at 1280 and 2560 px, light and dark (only with QUADRILLE_SHOTS_DIR); plots resize and re-theme on the next frames. */
+  const shoot = (name: string) => shootPage(page, name, { widths: [1280, 2560], settleMs: 800 });
 
   it('signs the operator in', async () => {
-    await page.goto('/sign-in');
-    await page.locator('form[data-ready]').waitFor();
-    await page.getByLabel('E-mail').fill('operator@saltmarsh.test');
-    await page.getByLabel('Password').fill('quadrille-demo');
-    await page.getByRole('button', { name: 'Sign in' }).click();
-    await page.waitForURL(server.baseUrl + '/');
+    await signInWithForm(page, 'operator@saltmarsh.test');
+    await page.waitForURL(suite.server.baseUrl + '/');
   });
 
   it('reruns the demo chain on the rev A and rev B captures from the chain page', async () => {
-    const chain = await server.db('chains').where({ name: chainName }).first('id');
+    const chain = await suite.server.db('chains').where({ name: chainName }).first('id');
     expect(chain, 'the demo chain is seeded').toBeTruthy();
     await page.goto(`/chains/${chain.id}`);
     await page.getByTestId('run-on-captures').click();
@@ -92,7 +43,7 @@ describe.skipIf(!hasChromium)('runs in a browser', { timeout: 180_000 }, () => {
     await dialog.getByRole('checkbox', { name: revB }).check();
     await shoot('dialog-run-on-captures');
     await dialog.getByTestId('run-dialog-submit').click();
-    await page.waitForURL(server.baseUrl + '/runs');
+    await page.waitForURL(suite.server.baseUrl + '/runs');
   });
 
   it('shows both runs finish on the runs list', async () => {
@@ -184,7 +135,7 @@ describe.skipIf(!hasChromium)('runs in a browser', { timeout: 180_000 }, () => {
   });
 
   it('runs a chosen chain from a capture page and follows it to its result', async () => {
-    const capture = await server.db('captures').where('name', 'like', 'Saltmarsh rev B%').first('id');
+    const capture = await suite.server.db('captures').where('name', 'like', 'Saltmarsh rev B%').first('id');
     await page.goto(`/captures/${capture.id}`);
     await page.getByTestId('run-chain').click();
     const dialog = page.getByRole('dialog');

@@ -94,26 +94,8 @@ export default function RevisionsPanel({ chainId, latest, viewing, refreshKey, o
       {latest > 1 && (
         <div className="mt-3 border-t border-line pt-2">
           <div className="flex items-end gap-2 text-xs">
-            <label className="flex-1">
-              <span className="mb-0.5 block text-muted">From</span>
-              <select className="w-full rounded border border-line bg-surface px-1 py-1 font-mono" value={from} onChange={(e) => setFrom(Number(e.target.value))} aria-label="Compare from revision">
-                {Array.from({ length: latest }, (_, i) => i + 1).map((n) => (
-                  <option key={n} value={n}>
-                    r{n}
-                  </option>
-                ))}
-              </select>
-            </label>
-            <label className="flex-1">
-              <span className="mb-0.5 block text-muted">To</span>
-              <select className="w-full rounded border border-line bg-surface px-1 py-1 font-mono" value={to} onChange={(e) => setTo(Number(e.target.value))} aria-label="Compare to revision">
-                {Array.from({ length: latest }, (_, i) => i + 1).map((n) => (
-                  <option key={n} value={n}>
-                    r{n}
-                  </option>
-                ))}
-              </select>
-            </label>
+            <RevisionSelect caption="From" latest={latest} value={from} onChange={setFrom} />
+            <RevisionSelect caption="To" latest={latest} value={to} onChange={setTo} />
             <button type="button" className={buttonSmall + ' py-1.5'} onClick={() => void compare()}>
               Compare
             </button>
@@ -123,6 +105,27 @@ export default function RevisionsPanel({ chainId, latest, viewing, refreshKey, o
         </div>
       )}
     </section>
+  );
+}
+
+/** One end of the comparison: a revision number from 1 to `latest`. */
+function RevisionSelect({ caption, latest, value, onChange }: { caption: 'From' | 'To'; latest: number; value: number; onChange: (revision: number) => void }) {
+  return (
+    <label className="flex-1">
+      <span className="mb-0.5 block text-muted">{caption}</span>
+      <select
+        className="w-full rounded border border-line bg-surface px-1 py-1 font-mono"
+        value={value}
+        onChange={(e) => onChange(Number(e.target.value))}
+        aria-label={`Compare ${caption.toLowerCase()} revision`}
+      >
+        {Array.from({ length: latest }, (_, i) => i + 1).map((n) => (
+          <option key={n} value={n}>
+            r{n}
+          </option>
+        ))}
+      </select>
+    </label>
   );
 }
 

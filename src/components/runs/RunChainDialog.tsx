@@ -1,9 +1,9 @@
 import { useEffect, useMemo, useState } from 'react';
-import { buttonSecondary, input, label } from '../ui';
+import { input, label } from '../ui';
 import type { Capture } from '../captures/types';
 import { chainsApi, type Chain, type Revision } from '../chains/api';
-import { submitRuns } from './api';
-import { DialogShell } from './DialogShell';
+import { DialogShell } from '../DialogShell';
+import { DialogButton, SearchBox, useDebounced, useRevisionDocument, useRunSubmission } from './run-dialog-parts';
 import { runBlocker } from './run-check';
 import { utcMinute } from './format';
 
@@ -15,43 +15,32 @@ export interface RunChainProps {
 
 /** "Run a chain…" on a capture page: opens a dialog to pick a chain and revision and run it on this capture. */
 export function RunChainButton(props: RunChainProps) {
-  const [open, setOpen] = useState(false);
-  return (
-    <>
-      <button type="button" className={props.className ?? buttonSecondary} onClick={() => setOpen(true)} data-testid="run-chain">
-        Run a chain…
-      </button>
-      {open && <RunChainDialog {...props} onClose={() => setOpen(false)} />}
-    </>
-  );
+  return <DialogButton text="Run a chain…" testId="run-chain" className={props.className} dialog={(onClose) => <RunChainDialog {...props} onClose={onClose} />} />;
 }
 
 function RunChainDialog({ capture, onClose }: RunChainProps & { onClose: () => void }) {
   const [search, setSearch] = useState('');
+  const q = useDebounced(search.trim(), 250);
   const [chains, setChains] = useState<Chain[] | null>(null);
   const [listError, setListError] = useState<string | null>(null);
   const [chain, setChain] = useState<Chain | null>(null);
   const [revisions, setRevisions] = useState<Revision[]>([]);
   const [revision, setRevision] = useState<number | null>(null);
-  const [document, setDocument] = useState<unknown>(null);
-  const [busy, setBusy] = useState(false);
-  const [error, setError] = useState<string | null>(null);
+  const document = useRevisionDocument(chain?.id ?? null, revision);
+  const { busy, error, submit } = useRunSubmission();
 
   useEffect(() => {
     let live = true;
-    const timer = setTimeout(() => {
-      void chainsApi.list({ q: search.trim() || undefined, pageSize: 100 }).then((result) => {
-        if (!live) return;
-        if (!result.ok) return setListError(result.error.message);
-        setListError(null);
-        setChains(result.data.items.filter((c) => c.permissions.run));
-      });
-    }, 250);
+    void chainsApi.list({ q: q || undefined, pageSize: 100 }).then((result) => {
+      if (!live) return;
+      if (!result.ok) return setListError(result.error.message);
+      setListError(null);
+      setChains(result.data.items.filter((c) => c.permissions.run));
+    });
     return () => {
       live = false;
-      clearTimeout(timer);
     };
-  }, [search]);
+  }, [q]);
 
   useEffect(() => {
     if (!chain) return;
@@ -66,31 +55,7 @@ function RunChainDialog({ capture, onClose }: RunChainProps & { onClose: () => v
     };
   }, [chain]);
 
-  useEffect(() => {
-    if (!chain || revision === null) return;
-    let live = true;
-    setDocument(null);
-    void chainsApi.revision(chain.id, revision).then((result) => {
-      if (live && result.ok) setDocument(result.data.document ?? null);
-    });
-    return () => {
-      live = false;
-    };
-  }, [chain, revision]);
-
   const blocker = useMemo(() => (document === null ? null : runBlocker(document, capture)), [document, capture]);
-
-  async function submit() {
-    if (!chain || revision === null) return;
-    setBusy(true);
-    setError(null);
-    const result = await submitRuns(chain.id, revision, [capture.id]);
-    if (!result.ok) {
-      setBusy(false);
-      return setError(result.error.message);
-    }
-    window.location.assign(`/runs/${result.data.runs[0].id}`);
-  }
 
   return (
     <DialogShell
@@ -100,26 +65,11 @@ function RunChainDialog({ capture, onClose }: RunChainProps & { onClose: () => v
       confirmDisabled={!chain || revision === null || Boolean(blocker)}
       busy={busy}
       error={error}
-      onConfirm={() => void submit()}
+      confirmTestId="run-dialog-submit"
+      onConfirm={() => chain && revision !== null && void submit(chain.id, revision, [capture.id])}
       onClose={onClose}
     >
-      <label className="sr-only" htmlFor="run-chain-search">
-        Search chains
-      </label>
-      <input
-        id="run-chain-search"
-        className={input}
-        type="search"
-        placeholder="Search chains by name"
-        value={search}
-        onChange={(e) => setSearch(e.target.value)}
-        autoFocus
-      />
-      {listError && (
-        <p role="alert" className="mt-3 text-sm text-danger">
-          The chains could not be listed: {listError}
-        </p>
-      )}
+      <SearchBox id="run-chain-search" noun="chains" placeholder="Search chains by name" value={search} onChange={setSearch} listError={listError} />
       <ul className="mt-3 max-h-72 divide-y divide-line overflow-y-auto rounded-md border border-line" role="radiogroup" aria-label="Chain">
         {chains === null && !listError && <li className="px-3 py-4 text-sm text-muted">Loading the chains…</li>}
         {chains?.length === 0 && <li className="px-3 py-4 text-sm text-muted">No chain you may run matches.</li>}

@@ -1,11 +1,9 @@
 import { useEffect, useMemo, useState } from 'react';
 import { Quantity } from '../Quantity';
-import { buttonSecondary, input } from '../ui';
 import { fetchCaptureList } from '../captures/api';
 import { LAYOUT_LABELS, type Capture } from '../captures/types';
-import { chainsApi } from '../chains/api';
-import { submitRuns } from './api';
-import { DialogShell } from './DialogShell';
+import { DialogShell } from '../DialogShell';
+import { DialogButton, SearchBox, useDebounced, useRevisionDocument, useRunSubmission } from './run-dialog-parts';
 import { runBlocker } from './run-check';
 
 export interface RunOnCapturesProps {
@@ -21,25 +19,9 @@ export interface RunOnCapturesProps {
 
 /** "Run on captures…": opens a dialog to rerun this chain revision on one or several captures. */
 export function RunOnCapturesButton(props: RunOnCapturesProps) {
-  const [open, setOpen] = useState(false);
   return (
-    <>
-      <button type="button" className={props.className ?? buttonSecondary} onClick={() => setOpen(true)} data-testid="run-on-captures">
-        Run on captures…
-      </button>
-      {open && <RunOnCapturesDialog {...props} onClose={() => setOpen(false)} />}
-    </>
+    <DialogButton text="Run on captures…" testId="run-on-captures" className={props.className} dialog={(onClose) => <RunOnCapturesDialog {...props} onClose={onClose} />} />
   );
-}
-
-/** Waits `ms` after the last change of `value`. */
-function useDebounced<T>(value: T, ms: number): T {
-  const [settled, setSettled] = useState(value);
-  useEffect(() => {
-    const timer = setTimeout(() => setSettled(value), ms);
-    return () => clearTimeout(timer);
-  }, [value, ms]);
-  return settled;
 }
 
 const LIST_SIZE = 100;
@@ -50,20 +32,9 @@ function RunOnCapturesDialog({ chainId, chainName, revision, unsavedEdits, onClo
   const [captures, setCaptures] = useState<Capture[] | null>(null);
   const [total, setTotal] = useState(0);
   const [listError, setListError] = useState<string | null>(null);
-  const [document, setDocument] = useState<unknown>(null);
+  const document = useRevisionDocument(chainId, revision);
   const [selected, setSelected] = useState<Map<string, Capture>>(new Map());
-  const [busy, setBusy] = useState(false);
-  const [error, setError] = useState<string | null>(null);
-
-  useEffect(() => {
-    let live = true;
-    void chainsApi.revision(chainId, revision).then((result) => {
-      if (live && result.ok) setDocument(result.data.document ?? null);
-    });
-    return () => {
-      live = false;
-    };
-  }, [chainId, revision]);
+  const { busy, error, submit } = useRunSubmission();
 
   useEffect(() => {
     let live = true;
@@ -100,19 +71,6 @@ function RunOnCapturesDialog({ chainId, chainName, revision, unsavedEdits, onClo
     });
   }
 
-  async function submit() {
-    const ids = [...selected.keys()];
-    if (ids.length === 0) return;
-    setBusy(true);
-    setError(null);
-    const result = await submitRuns(chainId, revision, ids);
-    if (!result.ok) {
-      setBusy(false);
-      return setError(result.error.message);
-    }
-    window.location.assign(result.data.runs.length === 1 ? `/runs/${result.data.runs[0].id}` : '/runs');
-  }
-
   const count = selected.size;
   return (
     <DialogShell
@@ -127,26 +85,11 @@ function RunOnCapturesDialog({ chainId, chainName, revision, unsavedEdits, onClo
       confirmDisabled={count === 0}
       busy={busy}
       error={error}
-      onConfirm={() => void submit()}
+      confirmTestId="run-dialog-submit"
+      onConfirm={() => void submit(chainId, revision, [...selected.keys()])}
       onClose={onClose}
     >
-      <label className="sr-only" htmlFor="run-capture-search">
-        Search captures
-      </label>
-      <input
-        id="run-capture-search"
-        className={input}
-        type="search"
-        placeholder="Search captures by name, notes or tag"
-        value={search}
-        onChange={(e) => setSearch(e.target.value)}
-        autoFocus
-      />
-      {listError && (
-        <p role="alert" className="mt-3 text-sm text-danger">
-          The captures could not be listed: {listError}
-        </p>
-      )}
+      <SearchBox id="run-capture-search" noun="captures" placeholder="Search captures by name, notes or tag" value={search} onChange={setSearch} listError={listError} />
       <ul className="mt-3 divide-y divide-line rounded-md border border-line" aria-label="Captures">
         {captures === null && !listError && <li className="px-3 py-4 text-sm text-muted">Loading the captures…</li>}
         {captures?.length === 0 && (
