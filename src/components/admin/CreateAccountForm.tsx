@@ -4,12 +4,12 @@ import { Field, FormMessage } from '../forms/Field';
 import { requestJson } from '../forms/api';
 import { ROLE_LABELS } from '../roles';
 import { buttonPrimary, input as inputClass, label as labelClass } from '../ui';
+import { MIN_PASSWORD_LENGTH as MIN_PASSWORD } from '@/lib/password-rules';
 
 type FieldName = 'email' | 'name' | 'role' | 'password';
 type Role = PresentedAccount['role'];
 
 // The server's rule for new passwords; checked here too so the message comes before a round trip.
-const MIN_PASSWORD = 10;
 
 const EMPTY = { email: '', name: '', role: 'engineer' as Role, password: '' };
 

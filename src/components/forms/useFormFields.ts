@@ -1,7 +1,7 @@
 import { useEffect, useState } from 'react';
 
 /** The server's rule for new passwords (newPasswordField), in characters; checked here too so the message comes before a round trip. */
-export const MIN_PASSWORD = 10;
+export { MIN_PASSWORD_LENGTH as MIN_PASSWORD } from '@/lib/password-rules';
 
 /**
  * State of a small form of text fields: their values, the error beside each, `busy` while the

@@ -4,15 +4,16 @@
  */
 import { z } from 'zod';
 import { roles } from '@/lib/permissions';
+import { MAX_PASSWORD_LENGTH, MIN_PASSWORD_LENGTH } from '@/lib/password-rules';
 
 /** An e-mail address (RFC 5321 caps a path at 254 characters). */
 export const emailField = z.string().trim().min(1).max(254).email('Enter a valid e-mail address.');
 
 /** A password being checked: any non-empty string up to 256 characters. */
-export const passwordField = z.string().min(1).max(256);
+export const passwordField = z.string().min(1).max(MAX_PASSWORD_LENGTH);
 
-/** A password being set: at least 10 characters (common practice for a password-only sign-in). */
-export const newPasswordField = z.string().min(10).max(256);
+/** A password being set: at least MIN_PASSWORD_LENGTH characters (src/lib/password-rules.ts). */
+export const newPasswordField = z.string().min(MIN_PASSWORD_LENGTH).max(MAX_PASSWORD_LENGTH);
 
 /** A person's display name. */
 export const nameField = z.string().trim().min(1).max(100);
