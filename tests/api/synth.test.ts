@@ -124,4 +124,21 @@ describe('demo seed', () => {
     const first = listed.body.items[0];
     expect(sha256(await download(operator, first.id))).toBe(first.sha256);
   });
+
+  it('marks the beacon and the interferer on every demo capture with SigMF annotations over the whole capture', async () => {
+    const listed = await operator.get('/api/captures?tag=saltmarsh');
+    for (const capture of listed.body.items) {
+      const labels = capture.annotations.map((a: Record<string, unknown>) => a['core:label']);
+      expect(labels, capture.name).toEqual(['Node beacon', 'CW interferer']);
+      const [beacon, interferer] = capture.annotations;
+      expect(beacon['core:sample_start']).toBe(0);
+      expect(beacon['core:sample_count']).toBe(capture.sampleCount);
+      // Scenario: beacon 600 kHz above the 2.412 GHz LO (DESIGN.md), interferer 1.35 MHz below it (the
+      // demo's own choice), in RF for every variant. An RRC signal occupies symbol rate x (1 + roll-off):
+      // 250 k x 1.35 (common practice).
+      expect((beacon['core:freq_lower_edge'] + beacon['core:freq_upper_edge']) / 2).toBeCloseTo(2.4126e9, 0);
+      expect(beacon['core:freq_upper_edge'] - beacon['core:freq_lower_edge']).toBeCloseTo(337_500, 0);
+      expect((interferer['core:freq_lower_edge'] + interferer['core:freq_upper_edge']) / 2).toBeCloseTo(2.41065e9, 0);
+    }
+  });
 });

@@ -14,6 +14,8 @@ export interface DemoSynthCapture {
   description: string;
   tags: string[];
   spec: SynthSpecInput;
+  /** SigMF annotation objects marking what the capture holds (absolute RF edges, Hz). */
+  annotations: Record<string, unknown>[];
 }
 
 /** Band centre of the invented sensor network (Hz). */
@@ -25,11 +27,43 @@ const BEACON_OFFSET = 600e3;
 /** A weak CW interferer 1.35 MHz below the band centre. */
 const INTERFERER_OFFSET = -1.35e6;
 
+const BEACON_SYMBOL_RATE = 250e3;
+const BEACON_ROLL_OFF = 0.35;
+
 const beacon = (frequency: number, level: number) =>
-  ({ modulation: 'qpsk', frequency, level, symbolRate: 250e3, rollOff: 0.35, span: 12 }) as const;
+  ({ modulation: 'qpsk', frequency, level, symbolRate: BEACON_SYMBOL_RATE, rollOff: BEACON_ROLL_OFF, span: 12 }) as const;
+
+/**
+ * The beacon and the interferer marked over the whole capture, in RF (the same in every variant:
+ * the IF variant's centre frequency is its LO). A root-raised-cosine signal occupies
+ * symbol rate x (1 + roll-off) (common practice); the CW line is given a 10 kHz box.
+ */
+function sceneAnnotations(sampleCount: number): Record<string, unknown>[] {
+  const beaconHalfWidth = (BEACON_SYMBOL_RATE * (1 + BEACON_ROLL_OFF)) / 2;
+  const beaconRf = BAND_CENTRE + BEACON_OFFSET;
+  const interfererRf = BAND_CENTRE + INTERFERER_OFFSET;
+  return [
+    {
+      'core:sample_start': 0,
+      'core:sample_count': sampleCount,
+      'core:freq_lower_edge': beaconRf - beaconHalfWidth,
+      'core:freq_upper_edge': beaconRf + beaconHalfWidth,
+      'core:label': 'Node beacon',
+      'core:comment': 'QPSK, 250 ksym/s, root-raised-cosine roll-off 0.35.',
+    },
+    {
+      'core:sample_start': 0,
+      'core:sample_count': sampleCount,
+      'core:freq_lower_edge': interfererRf - 5e3,
+      'core:freq_upper_edge': interfererRf + 5e3,
+      'core:label': 'CW interferer',
+      'core:comment': 'Weak unmodulated carrier 1.35 MHz below the band centre, -50 dBFS.',
+    },
+  ];
+}
 
 /** What sets one baseband board apart: its list entry, how it stores I/Q, its impairments and seed. */
-interface BasebandBoard extends Omit<DemoSynthCapture, 'spec'> {
+interface BasebandBoard extends Omit<DemoSynthCapture, 'spec' | 'annotations'> {
   datatype: SynthSpecInput['datatype'];
   layout: 'complex' | 'real-pair';
   impairments: SynthSpecInput['impairments'];
@@ -40,6 +74,7 @@ interface BasebandBoard extends Omit<DemoSynthCapture, 'spec'> {
 function basebandCapture({ datatype, layout, impairments, seed, ...entry }: BasebandBoard): DemoSynthCapture {
   return {
     ...entry,
+    annotations: sceneAnnotations(4e6 * 0.25),
     spec: {
       name: entry.name,
       sampleRate: 4e6,
@@ -107,6 +142,7 @@ export const demoSynthSpecs: readonly DemoSynthCapture[] = [
       'and real-sampled at 40 Msps by a 14-bit ADC. Beacon at 11.3 MHz IF, interferer at 9.35 MHz. ' +
       'Synthesized (invented scenario).',
     tags: ['saltmarsh', 'if', 'real', 'synthesized'],
+    annotations: sceneAnnotations(40e6 * 0.1),
     spec: {
       name: 'Saltmarsh IF variant: 10.7 MHz real-sampled IF',
       sampleRate: 40e6,
