@@ -155,6 +155,14 @@ describe.skipIf(!hasChromium)('chain notebook in a browser', { timeout: 300_000 
     await until('the fixed text to apply', async () => (await textOf(page.getByTestId('json-status'))).startsWith('Valid chain document'));
     await page.getByRole('radio', { name: 'Cells' }).click();
     await until('the cut-off from the JSON in the form', async () => (await stage('filter').getByLabel('Cut-off').inputValue()) === '120 kHz');
+
+    // Switching to the cells straight after typing keeps the edit (it used to wait 300 ms and be dropped).
+    await page.getByRole('radio', { name: 'JSON' }).click();
+    await editor.click();
+    await page.keyboard.press('Control+A');
+    await page.keyboard.insertText(chain(125000));
+    await page.getByRole('radio', { name: 'Cells' }).click();
+    await until('the cut-off typed just before switching', async () => (await stage('filter').getByLabel('Cut-off').inputValue()) === '125 kHz');
   });
 
   it('saves a revision with a message', async () => {

@@ -75,6 +75,8 @@ export default function JsonView({ doc, readOnly, onApply, onDiagnostics }: Json
 
   useEffect(() => {
     let timer: ReturnType<typeof setTimeout> | undefined;
+    /** The edit still waiting for APPLY_DELAY_MS; run at once if the view closes first. */
+    let pending: (() => void) | null = null;
     const check = linter((v) => {
       const diagnostics = jsonDiagnostics(v.state.doc.toString());
       callbacks.current.onDiagnostics?.(diagnostics.length, diagnostics[0]?.message);
@@ -104,7 +106,8 @@ export default function JsonView({ doc, readOnly, onApply, onDiagnostics }: Json
           EditorView.updateListener.of((update) => {
             if (!update.docChanged || update.transactions.some((t) => t.annotation(fromOutside))) return;
             clearTimeout(timer);
-            timer = setTimeout(() => {
+            pending = () => {
+              pending = null;
               const text = update.view.state.doc.toString();
               let value: unknown;
               try {
@@ -114,7 +117,8 @@ export default function JsonView({ doc, readOnly, onApply, onDiagnostics }: Json
               }
               const draft = toDraft(value);
               if (draft && parseChainDocument(value).ok) callbacks.current.onApply(draft);
-            }, APPLY_DELAY_MS);
+            };
+            timer = setTimeout(() => pending?.(), APPLY_DELAY_MS);
           }),
         ],
       }),
@@ -122,6 +126,8 @@ export default function JsonView({ doc, readOnly, onApply, onDiagnostics }: Json
     view.current = editor;
     return () => {
       clearTimeout(timer);
+      // Switching to the cells right after typing must not drop the last edit.
+      pending?.();
       editor.destroy();
       view.current = null;
     };
