@@ -4,12 +4,12 @@
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import type { Knex } from 'knex';
 import { openDb } from '@/lib/server/db';
 import { seedDemo } from '@/lib/server/seed';
+import { freePort } from '../helpers/free-port';
 
 /** The build under test: dist/ (npm test builds it), or QUADRILLE_TEST_DIST for a private build. */
 const distDir = resolve(process.env.QUADRILLE_TEST_DIST ?? 'dist');
@@ -29,18 +29,6 @@ export interface RunsServer {
   kill(): Promise<void>;
   /** Stops the process; with `keepData` the folder and database handle stay for a restart. */
   stop(keepData?: boolean): Promise<void>;
-}
-
-/** A TCP port nobody listens on right now (like tests/helpers/server.ts, which needs Vite to import). */
-function freePort(): Promise<number> {
-  return new Promise((done, fail) => {
-    const probe = createServer();
-    probe.once('error', fail);
-    probe.listen(0, '127.0.0.1', () => {
-      const address = probe.address();
-      probe.close(() => done(typeof address === 'object' && address ? address.port : 0));
-    });
-  });
 }
 
 /** Starts the built server on `dataDir` (a fresh folder, migrated and seeded, when absent). */

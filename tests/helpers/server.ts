@@ -4,13 +4,13 @@
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import type { Knex } from 'knex';
 import { openDb } from '@/lib/server/db';
 import { migrateToLatest } from '@/lib/server/db/migration-source';
 import { seedDemo } from '@/lib/server/seed';
+import { freePort } from './free-port';
 
 // QUADRILLE_TEST_ENTRY points at another build (one engineer's outDir) without touching dist/.
 const entry = resolve(process.env.QUADRILLE_TEST_ENTRY ?? 'dist/server/entry.mjs');
@@ -30,19 +30,6 @@ export interface StartOptions {
   /** Seed the demo accounts first (default true). */
   demo?: boolean;
   env?: Record<string, string>;
-}
-
-/** A TCP port nobody listens on right now. */
-export function freePort(): Promise<number> {
-  return new Promise((done, fail) => {
-    const probe = createServer();
-    probe.once('error', fail);
-    probe.listen(0, '127.0.0.1', () => {
-      const address = probe.address();
-      const port = typeof address === 'object' && address ? address.port : 0;
-      probe.close(() => done(port));
-    });
-  });
 }
 
 /** Starts the built server; resolves once /api/health answers 200. */
