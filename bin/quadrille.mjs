@@ -17,6 +17,14 @@ const require = createRequire(import.meta.url);
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const entry = join(root, 'src', 'cli', 'main.ts');
 
+/**
+ * A debugging switch read the way src/lib/config reads it (looseFlag): this launcher runs before
+ * any TypeScript can load, so it cannot import the schema.
+ */
+function switchedOn(name) {
+  return !['', '0', 'false', 'no', 'off'].includes((process.env[name] ?? '').trim().toLowerCase());
+}
+
 /** A fingerprint of every TypeScript source the command line may import (path, size, mtime). */
 function sourceFingerprint() {
   const hash = createHash('sha256');
@@ -24,19 +32,26 @@ function sourceFingerprint() {
     for (const item of readdirSync(dir, { withFileTypes: true }).sort((a, b) => a.name.localeCompare(b.name))) {
       const path = join(dir, item.name);
       if (item.isDirectory()) walk(path);
-      else if (/\.(ts|mts|json)$/.test(item.name)) {
-        const s = statSync(path);
-        hash.update(`${relative(root, path)}\0${s.size}\0${s.mtimeMs}\n`);
-      }
+      else if (/\.(ts|mts|json)$/.test(item.name)) addFile(path);
     }
   };
-  for (const dir of ['src/cli', 'src/dsp', 'src/types']) if (existsSync(join(root, dir))) walk(join(root, dir));
+  const addFile = (path) => {
+    const s = statSync(path);
+    hash.update(`${relative(root, path)}\0${s.size}\0${s.mtimeMs}\n`);
+  };
+  // src/lib/config and src/lib/units.ts: the CLI reads its QUADRILLE_TIMING/QUADRILLE_DEBUG through the configuration schema.
+  for (const source of ['src/cli', 'src/dsp', 'src/types', 'src/lib/config', 'src/lib/units.ts']) {
+    const path = join(root, source);
+    if (!existsSync(path)) continue;
+    if (statSync(path).isDirectory()) walk(path);
+    else addFile(path);
+  }
   return hash.digest('hex').slice(0, 16);
 }
 
 /** Path of an up-to-date bundle of the command line, or null when it cannot be built here. */
 function bundledCli() {
-  if (process.env.QUADRILLE_CLI_NO_BUNDLE) return null;
+  if (switchedOn('QUADRILLE_CLI_NO_BUNDLE')) return null;
   try {
     const cacheDir = join(root, 'node_modules', '.cache', 'quadrille');
     const bundle = join(cacheDir, `cli-${sourceFingerprint()}.mjs`);
@@ -73,6 +88,6 @@ if (bundle) {
   require('tsx/cjs/api').register();
   // tsx turns on source-mapped stack traces, which makes Node parse every module's inline map at
   // load time; the CLI prints one-line errors, so keep them off unless debugging.
-  if (!process.env.QUADRILLE_DEBUG) process.setSourceMapsEnabled(false);
+  if (!switchedOn('QUADRILLE_DEBUG')) process.setSourceMapsEnabled(false);
   require('../src/cli/main.ts');
 }

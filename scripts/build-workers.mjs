@@ -2,7 +2,8 @@
  * Builds the worker-thread entries (workers/*-worker.ts) into plain ES modules beside the built
  * server (dist/workers/<name>.mjs): the built server runs without a TypeScript loader. npm
  * packages stay external and load from node_modules, like the server's own imports; the `@/`
- * alias resolves through tsconfig.json's paths. Usage: node scripts/build-workers.mjs [outDir]
+ * alias resolves through tsconfig.json's paths. Also builds the configuration check that
+ * scripts/serve.mjs runs first (dist/config/index.mjs). Usage: node scripts/build-workers.mjs [outDir]
  */
 import { readdirSync } from 'node:fs';
 import { join, resolve } from 'node:path';
@@ -16,6 +17,20 @@ const entries = readdirSync('workers')
 await build({
   entryPoints: entries,
   outdir: outDir,
+  outExtension: { '.js': '.mjs' },
+  bundle: true,
+  platform: 'node',
+  target: 'node20',
+  format: 'esm',
+  packages: 'external',
+  tsconfig: 'tsconfig.json',
+  sourcemap: false,
+  logLevel: 'warning',
+});
+// The configuration schema, which scripts/serve.mjs checks before it loads the app.
+await build({
+  entryPoints: { index: 'src/lib/config/index.ts' },
+  outdir: resolve(outDir, '..', 'config'),
   outExtension: { '.js': '.mjs' },
   bundle: true,
   platform: 'node',

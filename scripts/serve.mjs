@@ -10,18 +10,22 @@
  * receive one request. Headers must still arrive within 60 s, so an idle connection cannot hold a
  * slot for long.
  */
-import { readFileSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
 import http from 'node:http';
 import https from 'node:https';
-import { resolve } from 'node:path';
+import { dirname, resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
 
 const entry = resolve(process.argv[2] ?? 'dist/server/entry.mjs');
-const seconds = Number(process.env.QUADRILLE_REQUEST_TIMEOUT_SECONDS ?? 4 * 3600);
-if (!Number.isFinite(seconds) || seconds < 0) {
-  console.error(`QUADRILLE_REQUEST_TIMEOUT_SECONDS must be a number of seconds >= 0, got "${process.env.QUADRILLE_REQUEST_TIMEOUT_SECONDS}"`);
-  process.exit(2);
+// The whole configuration is checked before the app loads, so a bad value stops the start with
+// a message naming the variable (src/lib/config, built beside the server by build-workers.mjs).
+const configModule = resolve(dirname(entry), '..', 'config', 'index.mjs');
+if (!existsSync(configModule)) {
+  console.error(`${configModule} is missing: build with \`npm run build\` (astro build, then node scripts/build-workers.mjs).`);
+  process.exit(1);
 }
+const { checkConfigAtStart } = await import(pathToFileURL(configModule).href);
+const seconds = checkConfigAtStart().QUADRILLE_REQUEST_TIMEOUT_SECONDS;
 
 // The entry would start the adapter's own server on import; ours takes its place.
 process.env.ASTRO_NODE_AUTOSTART = 'disabled';

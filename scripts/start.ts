@@ -6,7 +6,7 @@ import { spawn, spawnSync } from 'node:child_process';
 import { existsSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import knex from 'knex';
-import knexfile from '../knexfile';
+import { checkConfigAtStart } from '../src/lib/config';
 import { dataDir, demoEnabled } from '../src/lib/server/config';
 import { demoAccounts, demoPassword, seedDemo } from '../src/lib/server/seed';
 
@@ -24,6 +24,8 @@ function newestChange(path: string): number {
 
 /** Migrates and seeds; answers whether the demo accounts exist (so their credentials are worth printing). */
 async function prepareDatabase(): Promise<boolean> {
+  // Imported here, after the configuration check: the knexfile reads the data folder when it loads.
+  const { default: knexfile } = await import('../knexfile');
   const db = knex(knexfile);
   try {
     const [, applied] = (await db.migrate.latest()) as [number, string[]];
@@ -66,8 +68,8 @@ async function waitForServer(url: string, timeoutMs = 60_000): Promise<boolean> 
 }
 
 async function serve(showDemo: boolean): Promise<void> {
-  const host = process.env.HOST || 'localhost';
-  const port = process.env.PORT || '4321';
+  const host = settings.HOST;
+  const port = String(settings.PORT);
   const server = spawn(process.execPath, ['scripts/serve.mjs', entry], { stdio: 'inherit', env: { ...process.env, HOST: host, PORT: port } });
   for (const signal of ['SIGINT', 'SIGTERM'] as const) process.on(signal, () => server.kill(signal));
   server.on('exit', (code, signal) => process.exit(code ?? (signal ? 0 : 1)));
@@ -85,6 +87,8 @@ async function serve(showDemo: boolean): Promise<void> {
   console.log('Press Ctrl+C to stop.');
 }
 
+// A bad variable stops here with one message naming it, before the database or the build is touched.
+const settings = checkConfigAtStart();
 const demoAccountsExist = await prepareDatabase();
 buildIfNeeded();
 await serve(demoAccountsExist && demoEnabled());

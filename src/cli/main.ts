@@ -10,6 +10,7 @@ import { UsageError } from './errors';
 import type { CaptureOptions } from './capture-source';
 import { formatInspectReport, inspectCapture } from './inspect-command';
 import { runCommand } from './run-command';
+import { readSetting } from '../lib/config';
 
 /** Milliseconds from process start until every module was loaded (QUADRILLE_TIMING=1 prints it). */
 const MODULES_LOADED_MS = performance.now();
@@ -135,7 +136,7 @@ function describeError(error: unknown): string {
 
 main(process.argv.slice(2)).then(
   (code) => {
-    if (process.env.QUADRILLE_TIMING) {
+    if (readSetting('QUADRILLE_TIMING')) {
       const cpu = process.cpuUsage();
       process.stderr.write(`timing: start-up and module loading ${MODULES_LOADED_MS.toFixed(0)} ms (CPU ${((MODULES_LOADED_CPU.user + MODULES_LOADED_CPU.system) / 1000).toFixed(0)} ms), total ${performance.now().toFixed(0)} ms, CPU ${((cpu.user + cpu.system) / 1000).toFixed(0)} ms\n`);
     }
@@ -143,7 +144,7 @@ main(process.argv.slice(2)).then(
   },
   (error: unknown) => {
     process.stderr.write(`quadrille: error: ${describeError(error)}\n`);
-    if (process.env.QUADRILLE_DEBUG && error instanceof Error) process.stderr.write(`${error.stack}\n`);
+    if (readSetting('QUADRILLE_DEBUG') && error instanceof Error) process.stderr.write(`${error.stack}\n`);
     process.exitCode = error instanceof UsageError ? 2 : error instanceof Error && error.name === 'AbortError' ? 130 : 1;
   },
 );

@@ -14,6 +14,7 @@ import { InputError } from './errors';
 import { RunOutput } from './output-writer';
 import { ProgressReporter } from './progress';
 import { buildResults } from './results';
+import { readSetting } from '../lib/config';
 
 export interface RunCommandOptions extends CaptureOptions {
   chain: string;
@@ -84,7 +85,7 @@ export async function runCommand(options: RunCommandOptions, signal?: AbortSigna
     for (const issue of run.issues) {
       if (!planned.some((p) => p.message === issue.message)) progress.note(`${issue.severity}: ${issue.message}`);
     }
-    if (process.env.QUADRILLE_TIMING) {
+    if (readSetting('QUADRILLE_TIMING')) {
       process.stderr.write(`timing: run ${(seconds * 1000).toFixed(0)} ms, writing results ${(performance.now() - committing).toFixed(0)} ms\n`);
     }
     progress.note(`done in ${seconds.toFixed(2)} s: ${run.samplesOut} output samples, ${run.probes.length} probe(s) -> ${options.out}`);

@@ -2,6 +2,7 @@
  * Display formatting of physical quantities: SI prefixes for linear units (Hz, sps, s, V),
  * binary prefixes for byte sizes, fixed decimals for logarithmic units (dB, dBFS, dBm), and
  * clock-style durations above a minute. Pure: safe in pages, islands and the engine's reports.
+ * Also parses byte sizes as settings spell them (`512MiB`).
  */
 
 /** Options for {@link formatQuantity}. */
@@ -243,4 +244,19 @@ function example(unit: string): string {
   if (isLogUnit(unit)) return `-3 ${unit}`;
   if (!acceptsPrefix(unit)) return `12 ${unit}`;
   return unit === 's' ? '250 ms' : `4 M${unit}`;
+}
+
+// Binary suffixes a byte-size setting may carry, lower-cased; a bare number counts bytes.
+const BYTE_SUFFIXES: Record<string, number> = { '': 1, b: 1, kib: 1024, mib: 1024 ** 2, gib: 1024 ** 3, tib: 1024 ** 4 };
+
+/**
+ * Parse a byte size such as `1073741824`, `512MiB` or `8 GiB` (binary suffixes only, any case)
+ * into whole bytes; null when the text is not one. Fractions round down: `1.5KiB` is 1536 B.
+ */
+export function parseByteSize(text: string): number | null {
+  const match = /^\s*(\d+(?:\.\d+)?)\s*([a-z]*)\s*$/i.exec(text);
+  const factor = match ? BYTE_SUFFIXES[match[2]!.toLowerCase()] : undefined;
+  if (!match || factor === undefined) return null;
+  const value = Math.floor(Number(match[1]) * factor);
+  return Number.isSafeInteger(value) ? value : null;
 }

@@ -7,6 +7,7 @@ import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import type { Knex } from 'knex';
+import { resetConfig } from '@/lib/config';
 import { openDb } from '@/lib/server/db';
 import { migrateToLatest } from '@/lib/server/db/migration-source';
 import { seedDemo } from '@/lib/server/seed';
@@ -39,6 +40,8 @@ export async function startServer(options: StartOptions = {}): Promise<TestServe
   const db = openDb(dataDir);
   // Migrating here as well lets the seed run before the server's first request.
   await migrateToLatest(db);
+  // The seed runs in this process: read the environment again, as a test may have just changed it.
+  resetConfig();
   if (options.demo ?? true) await seedDemo(db);
   const port = await freePort();
   const child = spawn(process.execPath, [serveScript, entry], {

@@ -1,22 +1,24 @@
 /**
- * Settings read from the environment once, in one place, so every part of the server agrees.
- * Read through a local alias of process.env so the bundler cannot bake build-time values in.
+ * Server settings every part shares, as named views of the one configuration (src/lib/config).
  */
-import { resolve } from 'node:path';
+import { config } from '../config';
 
-const env = process.env;
-
-/** Folder holding the database and stored sample files (QUADRILLE_DATA_DIR, default ./data). */
+/** Folder holding the database and stored sample files (QUADRILLE_DATA_DIR, default ./data), absolute. */
 export function dataDir(): string {
-  return resolve(env.QUADRILLE_DATA_DIR || 'data');
+  return config().QUADRILLE_DATA_DIR;
 }
 
 /** True when NODE_ENV is production: session cookies then carry the Secure flag. */
 export function isProduction(): boolean {
-  return env.NODE_ENV === 'production';
+  return config().NODE_ENV === 'production';
 }
 
 /** True unless QUADRILLE_DEMO=0: whether `npm start` seeds the Saltmarsh demo. */
 export function demoEnabled(): boolean {
-  return env.QUADRILLE_DEMO !== '0';
+  return config().QUADRILLE_DEMO;
+}
+
+/** True unless QUADRILLE_DEMO_CAPTURES=0: whether the demo seed synthesizes its captures. */
+export function demoCapturesEnabled(): boolean {
+  return config().QUADRILLE_DEMO_CAPTURES;
 }

@@ -5,14 +5,14 @@
  */
 import { dirname } from 'node:path';
 import type { Knex } from 'knex';
-import { createObjectStore, readStorageConfig, type ObjectStore } from '../storage';
+import { config } from '../../config';
+import { createObjectStore, readStorageConfig, storageConfigOf, type ObjectStore } from '../storage';
 
-const env = process.env;
 let shared: ObjectStore | null = null;
 
 /** The server's object store (built on first use from the environment). */
 export function getObjectStore(): ObjectStore {
-  shared ??= createObjectStore(readStorageConfig(env));
+  shared ??= createObjectStore(readStorageConfig());
   return shared;
 }
 
@@ -21,7 +21,7 @@ export function objectStoreForDatabase(db: Knex): ObjectStore {
   const connection = db.client.config.connection as { filename?: string } | undefined;
   const filename = connection?.filename;
   if (!filename) return getObjectStore();
-  return createObjectStore(readStorageConfig({ ...env, QUADRILLE_DATA_DIR: dirname(filename) }));
+  return createObjectStore(storageConfigOf(config(), dirname(filename)));
 }
 
 /** The object key of a capture's samples; a fresh capture id makes every put a fresh key. */

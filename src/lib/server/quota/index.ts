@@ -1,5 +1,5 @@
 /** Per-user quotas: configured defaults, overrides, storage used and the next capture's allowance. */
-export { defaultQuota, parseByteCount, QuotaConfigError, type Quota } from './config';
+export { defaultQuota, type Quota } from './config';
 export {
   assertFits,
   captureAllowance,

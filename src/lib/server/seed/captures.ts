@@ -7,6 +7,7 @@
  */
 import type { Knex } from 'knex';
 import { demoSynthSpecs } from '@/dsp/synth';
+import { demoCapturesEnabled } from '../config';
 import { checkAnnotations, createSynthesizedCapture, DuplicateCaptureError, objectStoreForDatabase } from '../captures';
 import { findUserByEmail } from '../users';
 import type { SeedStep } from './types';
@@ -17,7 +18,7 @@ export const demoCaptureOwnerEmail = 'engineer@saltmarsh.test';
 export const seedDemoCaptures: SeedStep = {
   name: 'demo captures',
   async run(db: Knex) {
-    if (process.env.QUADRILLE_DEMO_CAPTURES === '0') return false;
+    if (!demoCapturesEnabled()) return false;
     const owner = await findUserByEmail(db, demoCaptureOwnerEmail);
     if (!owner) return false;
     const existing = await db('captures').count<{ count: number }[]>({ count: '*' }).first();

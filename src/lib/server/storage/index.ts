@@ -12,4 +12,4 @@ export {
 export { assertObjectKey, resolveRange } from './keys';
 export { LocalFileStore } from './local-file-store';
 export { S3Store, createS3Client, type S3ConnectionConfig, type S3StoreOptions } from './s3-store';
-export { createObjectStore, readStorageConfig, type StorageConfig } from './config';
+export { createObjectStore, readStorageConfig, storageConfigOf, type StorageConfig } from './config';
