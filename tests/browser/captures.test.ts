@@ -26,17 +26,12 @@ describe.skipIf(!hasChromium)('captures in a browser', { timeout: 120_000 }, () 
   const pageAs = (email: string) => suite.tabs.pageAs(email);
 
   /**
-   * Fills an input and checks it holds exactly `text`: React may still be attaching to the
-   * server-rendered form when the test starts typing, which can move the selection so the text
-   * lands after the default instead of replacing it.
+   * Fills an input and checks it holds exactly `text`. Call once the form carries `data-ready`
+   * (React attached): typing into the server-rendered form before that could land after the default.
    */
   async function fillExactly(input: ReturnType<Page['locator']>, text: string): Promise<void> {
-    for (let attempt = 0; attempt < 10; attempt++) {
-      await input.fill(text);
-      if ((await input.inputValue()) === text) return;
-      await new Promise((wake) => setTimeout(wake, 200));
-    }
-    throw new Error(`the field would not hold "${text}"`);
+    await input.fill(text);
+    expect(await input.inputValue()).toBe(text);
   }
 
   const rowNames = (page: Page) => page.locator('[data-testid="captures-table"] tbody tr[data-capture-id] td:nth-child(2) a').allTextContents();
@@ -123,6 +118,7 @@ describe.skipIf(!hasChromium)('captures in a browser', { timeout: 120_000 }, () 
     const page = await pageAs('engineer@saltmarsh.test');
     await page.goto('/captures/synthesize');
     await hydrated(page);
+    await page.locator('[data-testid="synth-form"][data-ready]').waitFor();
     const form = page.getByTestId('synth-form');
     await fillExactly(form.getByLabel('Name').first(), 'Bench tone, synthesized');
     await fillExactly(form.getByLabel('Sample rate (Hz)'), '2M');
