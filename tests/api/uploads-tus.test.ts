@@ -6,7 +6,9 @@
  * Upload-Offset and Content-Type application/offset+octet-stream, 204 with the new Upload-Offset;
  * HEAD answers Upload-Offset; DELETE (termination extension) answers 204.
  */
+import { existsSync, statSync } from 'node:fs';
 import { request as httpRequest } from 'node:http';
+import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startServer, type TestServer } from '../helpers/server';
 import type { Client } from '../helpers/client';
@@ -49,9 +51,17 @@ function head(client: Client, location: string) {
   return send(client, 'HEAD', location, { headers: tus });
 }
 
+/** Polls `check` (every 20 ms, up to 30 s) until it holds; fails naming `what`. */
+async function until(what: string, check: () => boolean): Promise<void> {
+  for (let attempt = 0; !check(); attempt++) {
+    if (attempt >= 1500) throw new Error(`timed out waiting for ${what}`);
+    await new Promise((wake) => setTimeout(wake, 20));
+  }
+}
+
 /** Sends the start of a PATCH body, then drops the connection, as a network failure would. */
 function interruptedPatch(client: Client, location: string, offset: number, bytes: Uint8Array, sendBytes: number): Promise<void> {
-  return new Promise((resolve) => {
+  return new Promise((resolve, reject) => {
     const url = new URL(server.baseUrl + location);
     const request = httpRequest(url, {
       method: 'PATCH',
@@ -66,8 +76,16 @@ function interruptedPatch(client: Client, location: string, offset: number, byte
     });
     request.on('error', () => resolve());
     request.on('close', () => resolve());
+    // Drop the connection once the server has written the sent part, not after a guessed pause.
+    const partial = join(server.dataDir, 'uploads', location.split('/').pop()!);
     request.write(bytes.subarray(0, sendBytes), () => {
-      setTimeout(() => request.destroy(), 400);
+      void until(`${offset + sendBytes} bytes in ${partial}`, () => existsSync(partial) && statSync(partial).size >= offset + sendBytes).then(
+        () => request.destroy(),
+        (error) => {
+          request.destroy();
+          reject(error);
+        },
+      );
     });
   });
 }

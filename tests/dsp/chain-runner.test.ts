@@ -127,16 +127,16 @@ describe('runChain cancel', () => {
     function* endless() {
       for (;;) {
         produced++;
+        // Queued as a macrotask from inside the synchronous source: it can only fire when the runner
+        // gives the event loop a turn; if it never does, the run never ends and the test times out.
+        if (produced === 3) setImmediate(() => controller.abort());
         yield block;
       }
     }
-    setTimeout(() => controller.abort(), 30);
-    const started = Date.now();
     await expect(runChain(doc([{ id: 'shift', kind: 'mix', params: { frequency: 1000 } }]), complex, endless(), { signal: controller.signal })).rejects.toMatchObject({
       name: 'AbortError',
     });
-    expect(Date.now() - started).toBeLessThan(5000);
-    expect(produced).toBeGreaterThan(1);
+    expect(produced).toBeGreaterThanOrEqual(3);
   });
 
   it('refuses to start with a signal already aborted', async () => {

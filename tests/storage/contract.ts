@@ -233,7 +233,8 @@ export function objectStoreContract(name: string, open: () => Promise<ContractHa
       // A client that sent 5 MiB, then went quiet without closing: only the abort can end the put.
       const source = (async function* () {
         yield randomBytes(5 * MiB);
-        setTimeout(() => controller.abort(new Error('client went away')), 50);
+        // The generator resumed, so the put already asked for more: abort while it waits.
+        setImmediate(() => controller.abort(new Error('client went away')));
         await new Promise(() => undefined);
       })();
       const error = await store.put(key, source, { signal: controller.signal }).catch((e: unknown) => e);
