@@ -43,8 +43,7 @@ export function describeFailure(error: unknown): RunFailure {
     return { message: error.message, stageId: error.stageId || null, kind: error.kind || 'chain', sampleIndex: error.sampleIndex };
   }
   if (error instanceof FormatError) {
-    const sample = /sample (\d+)/.exec(error.message);
-    return { message: `capture: ${error.message}`, stageId: null, kind: 'input', sampleIndex: sample ? Number(sample[1]) : null };
+    return { message: `capture: ${error.message}`, stageId: null, kind: 'input', sampleIndex: error.sampleIndex };
   }
   if (error instanceof ObjectNotFoundError) {
     return { message: 'capture: its samples are missing from storage', stageId: null, kind: 'input', sampleIndex: null };
