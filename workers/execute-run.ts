@@ -7,7 +7,7 @@
 import type { Readable } from 'node:stream';
 import { ChainRunError, isAbortError, runChain } from '@/dsp/chain';
 import { FormatError, SampleDecoder, parseDatatype } from '@/dsp/formats';
-import type { StreamFormat } from '@/dsp/types';
+import { streamFormatOf } from '@/contracts/capture';
 import { ENGINE_VERSION } from '@/dsp/version';
 import { buildResults } from '@/cli/results';
 import { ObjectNotFoundError, type ObjectStore } from '@/lib/server/storage';
@@ -57,8 +57,7 @@ export async function executeRun(job: RunJob, store: ObjectStore, options: Execu
   const started = performance.now();
   const seconds = () => (performance.now() - started) / 1000;
   const { capture } = job;
-  const format: StreamFormat = { sampleRate: capture.sampleRate, sampleType: capture.layout };
-  if (capture.centerFrequency !== null) format.centerFrequency = capture.centerFrequency;
+  const format = streamFormatOf(capture);
 
   let sink: OutputSink | null = null;
   try {
