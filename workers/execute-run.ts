@@ -7,7 +7,7 @@
 import type { Readable } from 'node:stream';
 import { ChainRunError, isAbortError, runChain } from '@/dsp/chain';
 import { FormatError, SampleDecoder, parseDatatype } from '@/dsp/formats';
-import type { StreamFormat } from '@/dsp/types';
+import { streamFormatOf } from '@/contracts/capture';
 import { ENGINE_VERSION } from '@/dsp/version';
 import { buildResults } from '@/cli/results';
 import { ObjectNotFoundError, type ObjectStore } from '@/lib/server/storage';
@@ -43,8 +43,7 @@ export function describeFailure(error: unknown): RunFailure {
     return { message: error.message, stageId: error.stageId || null, kind: error.kind || 'chain', sampleIndex: error.sampleIndex };
   }
   if (error instanceof FormatError) {
-    const sample = /sample (\d+)/.exec(error.message);
-    return { message: `capture: ${error.message}`, stageId: null, kind: 'input', sampleIndex: sample ? Number(sample[1]) : null };
+    return { message: `capture: ${error.message}`, stageId: null, kind: 'input', sampleIndex: error.sampleIndex };
   }
   if (error instanceof ObjectNotFoundError) {
     return { message: 'capture: its samples are missing from storage', stageId: null, kind: 'input', sampleIndex: null };
@@ -58,8 +57,7 @@ export async function executeRun(job: RunJob, store: ObjectStore, options: Execu
   const started = performance.now();
   const seconds = () => (performance.now() - started) / 1000;
   const { capture } = job;
-  const format: StreamFormat = { sampleRate: capture.sampleRate, sampleType: capture.layout };
-  if (capture.centerFrequency !== null) format.centerFrequency = capture.centerFrequency;
+  const format = streamFormatOf(capture);
 
   let sink: OutputSink | null = null;
   try {

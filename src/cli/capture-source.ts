@@ -12,19 +12,20 @@ import {
 } from '../dsp/formats/index';
 import type { SampleType, StreamFormat } from '../dsp/types';
 import { valuesPerSample } from '../dsp/types';
+import { streamFormatOf, type Capture } from '../contracts/capture';
 import { InputError } from './errors';
 
-/** Options that describe a raw capture or override what a file says. */
-export interface CaptureOptions {
-  datatype?: string;
-  /** Samples per second (Hz). */
-  sampleRate?: number;
+/**
+ * Options that describe a raw capture or override what a file says: the capture contract's fields
+ * (checked here, so the layout is still the text typed), plus how much to read at once.
+ */
+export type CaptureOptions = Partial<Pick<Capture, 'datatype' | 'sampleRate'>> & {
   /** Centre frequency (Hz). */
-  centerFrequency?: number;
+  centerFrequency?: NonNullable<Capture['centerFrequency']>;
   layout?: string;
   /** Bytes per read (default 1 MiB). */
   readBytes?: number;
-}
+};
 
 /** An opened capture: what it holds and a way to stream its samples once or more. */
 export interface CaptureSource {
@@ -112,8 +113,7 @@ function rawLike(
       `${basename(dataPath)}: ${dataBytes} bytes is not a whole number of ${bytesPerSample}-byte ${datatype.name} ${layout} samples (truncated file or wrong datatype?)`,
     );
   }
-  const format: StreamFormat = { sampleRate, sampleType: layout };
-  if (centerFrequency !== undefined) format.centerFrequency = centerFrequency;
+  const format = streamFormatOf({ sampleRate, layout, centerFrequency: centerFrequency ?? null });
   const readBytes = alignedReadSize(options.readBytes, bytesPerSample);
   return {
     kind, path, dataPath, format, meta, dataBytes,
@@ -148,9 +148,8 @@ function openWav(path: string, options: CaptureOptions): CaptureSource {
     throw new InputError(`--layout: ${wanted} does not fit a ${wav.channels}-channel WAV (it reads as ${layout}${wav.channels === 2 ? ' or complex' : ''})`);
   }
   const sampleRate = options.sampleRate !== undefined ? assertRate(options.sampleRate, '--sample-rate') : wav.sampleRate;
-  const format: StreamFormat = { sampleRate, sampleType: layout };
   const centerFrequency = optionalFrequency(options.centerFrequency, '--center-frequency');
-  if (centerFrequency !== undefined) format.centerFrequency = centerFrequency;
+  const format = streamFormatOf({ sampleRate, layout, centerFrequency: centerFrequency ?? null });
   const readBytes = alignedReadSize(options.readBytes, 8);
   return {
     kind: 'wav', path, dataPath: path, format,

@@ -45,6 +45,8 @@ export interface ChainIssue {
   code: string;
   message: string;
   stageId?: string;
+  /** Position of the stage in the document (0-based): the one reliable index, as ids may be missing or repeated. */
+  stageIndex?: number;
   /** Parameter name (dot path for nested ones) the issue is about. */
   field?: string;
 }

@@ -84,7 +84,7 @@ describe('parseChainDocument', () => {
     expect(result.ok).toBe(false);
     if (result.ok) return;
     expect(result.issues).toEqual([
-      { severity: 'error', code: 'duplicate-stage-id', stageId: 'a', field: 'id', message: 'stages[2] (id "a", mix): id: duplicate stage id "a" (already used by stages[0])' },
+      { severity: 'error', code: 'duplicate-stage-id', stageId: 'a', stageIndex: 2, field: 'id', message: 'stages[2] (id "a", mix): id: duplicate stage id "a" (already used by stages[0])' },
     ]);
   });
 

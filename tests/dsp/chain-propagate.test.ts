@@ -102,6 +102,7 @@ describe('propagateChain warnings', () => {
         severity: 'error',
         code: 'input-type-mismatch',
         stageId: 'shift',
+        stageIndex: 0,
         message: 'stages[0] (id "shift", mix): needs complex input, but is fed real (turn a real stream into complex with quadrature-mix)',
       },
     ]);

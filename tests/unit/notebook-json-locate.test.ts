@@ -84,11 +84,12 @@ describe('field path to text offset', () => {
     expect(at(locatePath(root, ['missing']))).toBe('{');
   });
 
-  it('finds the stage by id when a message carries no position', () => {
+  it('finds the stage by its stageIndex, else by id', () => {
     expect(issuePath({ severity: 'error', code: 'invalid-parameter', stageId: 'dec', field: 'factor', message: 'factor: too big' }, JSON.parse(text).stages)).toEqual([
       'stages', 3, 'params', 'factor',
     ]);
-    expect(issuePath({ severity: 'error', code: 'duplicate-stage-id', stageId: 'dec', field: 'id', message: 'stages[3] (id "dec", decimate): id: duplicate' }, [])).toEqual([
+    // A duplicated id names two stages: the index says which one, whatever the message says.
+    expect(issuePath({ severity: 'error', code: 'duplicate-stage-id', stageId: 'dec', stageIndex: 3, field: 'id', message: 'id: duplicate' }, [])).toEqual([
       'stages', 3, 'id',
     ]);
   });

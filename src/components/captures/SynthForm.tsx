@@ -5,6 +5,7 @@ import { demoSynthSpecs } from '@/dsp/synth/demo';
 import { synthSampleCount } from '@/dsp/synth/spec';
 import { synthSpecWarnings, type SynthSpec } from '@/dsp/synth/validate';
 import { formatBytes, formatQuantity } from '@/lib/units';
+import { apiErrorOf } from '@/contracts/errors';
 import { buttonPrimary, input, label as labelClass } from '../ui';
 import { FieldView } from './SynthFieldViews';
 import { formNameOf, formValuesOf, synthFormModel, synthFormSchema, type SynthFormValues } from './synth-form-schema';
@@ -215,7 +216,7 @@ async function postSynth(body: unknown): Promise<SynthOutcome> {
   } catch {
     return { kind: 'refused', message: 'The server could not be reached. Check the connection and try again.' };
   }
-  let parsed: { error?: { message: string; field?: string | null; code?: string }; capture?: Capture } & Partial<Capture> = {};
+  let parsed: { capture?: Capture } & Partial<Capture> = {};
   try {
     parsed = await response.json();
   } catch {
@@ -223,5 +224,6 @@ async function postSynth(body: unknown): Promise<SynthOutcome> {
   }
   if (response.ok && parsed.id) return { kind: 'created', capture: parsed as Capture };
   if (response.status === 409 && parsed.capture) return { kind: 'duplicate', capture: parsed.capture };
-  return { kind: 'refused', message: parsed.error?.message ?? `The server answered ${response.status} ${response.statusText}.`, field: parsed.error?.field };
+  const error = apiErrorOf(parsed);
+  return { kind: 'refused', message: error?.message ?? `The server answered ${response.status} ${response.statusText}.`, field: error?.field };
 }

@@ -33,7 +33,8 @@ export default function UploadPanel() {
   const [picked, setPicked] = useState<PickedUpload | null>(null);
   const [values, setValues] = useState<UploadValues>(() => initialValues(null));
   const [errors, setErrors] = useState<UploadErrors>({});
-  const [message, setMessage] = useState<string | null>(null);
+  // The tone travels with the text: a cancel the user asked for is news, not a failure.
+  const [message, setMessage] = useState<{ text: string; tone: 'ok' | 'error' } | null>(null);
   const [stage, setStage] = useState<Stage>({ kind: 'editing' });
   const [ready, setReady] = useState(false);
   const transfer = useRef<Transfer | null>(null);
@@ -62,7 +63,7 @@ export default function UploadPanel() {
   function refuse(field: string | null | undefined, text: string) {
     const formField = formFieldOf(field);
     if (formField) setErrors({ [formField]: text });
-    else setMessage(text);
+    else setMessage({ text, tone: 'error' });
     setStage({ kind: 'editing' });
   }
 
@@ -108,7 +109,7 @@ export default function UploadPanel() {
     transfer.current = null;
     setStage({ kind: 'editing' });
     await running?.cancel();
-    setMessage('Upload cancelled: nothing was stored.');
+    setMessage({ text: 'Upload cancelled: nothing was stored.', tone: 'ok' });
   }
 
   function reset() {
@@ -217,7 +218,7 @@ export default function UploadPanel() {
         </div>
       </div>
 
-      {message && <div className="mt-4"><FormMessage tone={/cancelled/.test(message) ? 'ok' : 'error'}>{message}</FormMessage></div>}
+      {message && <div className="mt-4"><FormMessage tone={message.tone}>{message.text}</FormMessage></div>}
 
       {stage.kind === 'sending' ? (
         <UploadProgress progress={stage.progress} onCancel={cancel} />

@@ -1,12 +1,11 @@
 /**
- * Shapes of the captures API as the browser sees them (the contract in the captures plan), and
- * small readers of the SigMF annotation objects a capture carries.
+ * Shapes of the captures API as the browser sees them (a capture itself is the contract's, in
+ * src/contracts/capture.ts), and small readers of the SigMF annotation objects a capture carries.
  */
 import type { SampleType } from '@/dsp/types';
-import type { PresentedCapture } from '@/lib/server/captures/present';
 
-/** A capture as the API presents it: the server's presenter type, so the two cannot drift apart. */
-export type Capture = PresentedCapture;
+export type { Capture } from '@/contracts/capture';
+import type { Capture } from '@/contracts/capture';
 
 /** Storage used against the quota (bytes). */
 export interface StorageUsage {

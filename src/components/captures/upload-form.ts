@@ -4,39 +4,14 @@
  * number of samples. The server repeats every check; these only save a wasted transfer.
  */
 import { checkLayoutFits, parseDatatype, FormatError } from '@/dsp/formats';
-import type { SampleType } from '@/dsp/types';
+import { captureLimits as limits, type DescribedField, type UploadDescription, type UploadValues } from '@/contracts/capture';
 import { formatQuantity, parseQuantity } from '@/lib/units';
 import type { PickedUpload } from './upload-files';
 
-export type UploadField = 'file' | 'name' | 'datatype' | 'layout' | 'sampleRate' | 'centerFrequency' | 'visibility' | 'tags' | 'notes';
+/** What the user typed or chose, and the checked description in the units the API takes (the capture contract's). */
+export type { UploadDescription, UploadValues };
 
-/** What the user typed or chose. */
-export interface UploadValues {
-  name: string;
-  datatype: string;
-  layout: SampleType;
-  sampleRate: string;
-  centerFrequency: string;
-  visibility: 'team' | 'private';
-  tags: string;
-  notes: string;
-}
-
-/** A checked description, in the units the API takes. */
-export interface UploadDescription {
-  name: string;
-  datatype: string;
-  layout: SampleType;
-  /** Hz. */
-  sampleRate: number;
-  /** Hz, or null when not given. */
-  centerFrequency: number | null;
-  visibility: 'team' | 'private';
-  tags: string[];
-  notes: string;
-  /** Samples in the upload. */
-  sampleCount: number;
-}
+export type UploadField = 'file' | DescribedField;
 
 export type UploadErrors = Partial<Record<UploadField, string>>;
 
@@ -71,7 +46,7 @@ export function checkUpload(values: UploadValues, picked: PickedUpload | null): 
   if (!picked) errors.file = 'Choose a file to upload.';
   const name = values.name.trim();
   if (!name) errors.name = 'Give the capture a name.';
-  else if (name.length > 200) errors.name = `At most 200 characters (this is ${name.length}).`;
+  else if (name.length > limits.name) errors.name = `At most ${limits.name} characters (this is ${name.length}).`;
 
   let bytesPerSample: number | null = null;
   const datatypeText = storedDatatype(values);
@@ -101,8 +76,8 @@ export function checkUpload(values: UploadValues, picked: PickedUpload | null): 
   }
 
   const tags = values.tags.split(',').map((t) => t.trim()).filter(Boolean);
-  if (tags.some((t) => t.length > 40)) errors.tags = 'Each tag is at most 40 characters.';
-  else if (tags.length > 20) errors.tags = `At most 20 tags (this is ${tags.length}).`;
+  if (tags.some((t) => t.length > limits.tag)) errors.tags = `Each tag is at most ${limits.tag} characters.`;
+  else if (tags.length > limits.tags) errors.tags = `At most ${limits.tags} tags (this is ${tags.length}).`;
 
   let sampleCount = 0;
   if (serverDescribes && picked) sampleCount = Number.NaN;

@@ -2,6 +2,7 @@
  * The steps of an upload after the form checks pass: the pre-check (with the sha256 of files small
  * enough to hash in the browser), the transfer, and reading the capture the server made of it.
  */
+import { apiErrorOf } from '@/contracts/errors';
 import { requestJson, type ApiError } from '../forms/api';
 import type { PickedUpload } from './upload-files';
 import type { UploadDescription } from './upload-form';
@@ -73,20 +74,21 @@ export async function finishedCapture(uploadId: string): Promise<Finished> {
   try {
     response = await fetch(`/api/uploads/${encodeURIComponent(uploadId)}/capture`, { credentials: 'same-origin', headers: { accept: 'application/json' } });
   } catch {
-    return { kind: 'refused', error: { code: 'network', message: 'The server could not be reached to confirm the upload. Reload the captures list to see whether it was stored.' } };
+    return { kind: 'refused', error: { code: 'network', message: 'The server could not be reached to confirm the upload. Reload the captures list to see whether it was stored.', field: null } };
   }
   const text = await response.text();
   if (response.ok) return { kind: 'created', capture: JSON.parse(text) as Capture };
   const error = errorOfBody(text);
   if (response.status === 409 && error?.capture) return { kind: 'duplicate', capture: error.capture };
-  return { kind: 'refused', error: error ?? { code: `http_${response.status}`, message: `The server answered ${response.status} ${response.statusText}.` } };
+  return { kind: 'refused', error: error ?? { code: `http_${response.status}`, message: `The server answered ${response.status} ${response.statusText}.`, field: null } };
 }
 
 /** The API error inside a tus failure's response body, if it has one. */
 export function errorOfBody(body: string): (ApiError & { capture?: Capture }) | null {
   try {
-    const parsed = JSON.parse(body) as { error?: ApiError & { capture?: Capture }; capture?: Capture };
-    if (parsed.error && typeof parsed.error.message === 'string') return { ...parsed.error, capture: parsed.error.capture ?? parsed.capture };
+    const parsed = JSON.parse(body) as { capture?: Capture };
+    const error = apiErrorOf(parsed);
+    if (error) return parsed.capture ? { ...error, capture: parsed.capture } : error;
   } catch {
     // Not JSON: a proxy page or an empty body.
   }

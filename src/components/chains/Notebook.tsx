@@ -19,7 +19,7 @@ import RevisionsPanel from './RevisionsPanel';
 import type { StageActions } from './StageCell';
 import { usePreview } from './use-preview';
 import { useResponses } from './use-responses';
-import type { PreviewCapture } from './preview-protocol';
+import { previewCaptureSchema, streamFormatOf, type PreviewCapture } from '@/contracts/capture';
 
 interface NotebookProps {
   chainId: string;
@@ -30,11 +30,6 @@ interface NotebookProps {
 const JsonView = lazy(() => import('./JsonView'));
 
 const captureKey = (chainId: string) => `quadrille.preview-capture.${chainId}`;
-
-/** The stream format a capture feeds the chain. */
-function captureFormat(c: Capture): StreamFormat {
-  return { sampleRate: c.sampleRate, sampleType: c.layout, ...(c.centerFrequency !== null ? { centerFrequency: c.centerFrequency } : {}) };
-}
 
 export default function Notebook({ chainId, user }: NotebookProps) {
   const [chain, setChain] = useState<ChainWithRevision | null>(null);
@@ -90,7 +85,7 @@ export default function Notebook({ chainId, user }: NotebookProps) {
     const remembered = localStorage.getItem(captureKey(chainId));
     // Fewest errors first, then fewest warnings; list order breaks ties.
     const score = (c: Capture) => {
-      const a = analyseDraft(doc, captureFormat(c));
+      const a = analyseDraft(doc, streamFormatOf(c));
       return a.errorCount * 1000 + a.warningCount;
     };
     const best = captures.map((c) => ({ c, s: score(c) })).sort((x, y) => x.s - y.s)[0]?.c;
@@ -99,11 +94,11 @@ export default function Notebook({ chainId, user }: NotebookProps) {
   }, [captures, chain, chainId, captureId, doc]);
 
   const capture = captures?.find((c) => c.id === captureId) ?? null;
-  const input: StreamFormat = capture ? captureFormat(capture) : manualInput;
+  const input: StreamFormat = capture ? streamFormatOf(capture) : manualInput;
   const inputKey = JSON.stringify(input);
   const stableInput = useMemo(() => input, [inputKey]); // eslint-disable-line react-hooks/exhaustive-deps
   const previewCapture = useMemo<PreviewCapture | null>(
-    () => (capture ? { id: capture.id, datatype: capture.datatype, layout: capture.layout, sampleRate: capture.sampleRate, centerFrequency: capture.centerFrequency, sampleCount: capture.sampleCount, bytesPerSample: capture.bytesPerSample } : null),
+    () => (capture ? previewCaptureSchema.parse(capture) : null),
     [capture],
   );
 

@@ -148,13 +148,12 @@ const STAGE_FIELDS = new Set(['id', 'kind', 'params', 'probe', 'bypass']);
 const PARAMETER_CODES = new Set<string>([ISSUE_CODES.invalidParameter, ISSUE_CODES.unknownParameter]);
 
 /**
- * The JSON path an issue is about: `stages[i]` (position from the message's stage label, else by
- * id), then `params` and the field for parameter problems, or the stage's own field.
+ * The JSON path an issue is about: `stages[i]` (the issue's stageIndex, else found by id), then
+ * `params` and the field for parameter problems, or the stage's own field.
  */
 export function issuePath(issue: ChainIssue, stages: readonly { id?: unknown }[]): (string | number)[] {
   if (issue.stageId === undefined) return issue.field ? splitFieldPath(issue.field) : [];
-  const labelled = /^stages\[(\d+)\]/.exec(issue.message);
-  const index = labelled ? Number(labelled[1]) : stages.findIndex((s) => s.id === issue.stageId);
+  const index = issue.stageIndex ?? stages.findIndex((s) => s.id === issue.stageId);
   if (index < 0) return [];
   const stagePath: (string | number)[] = ['stages', index];
   if (!issue.field) return stagePath;

@@ -6,7 +6,8 @@
 import type { ChainDocument } from '../../dsp/chain/document';
 import { runChain } from '../../dsp/chain/runner';
 import { reduceSpectrumMax } from '../../dsp/spectral/trace-reducer';
-import type { ProbeOutput, SampleType, StreamFormat } from '../../dsp/types';
+import type { ProbeOutput, StreamFormat } from '../../dsp/types';
+import type { PreviewCapture } from '../../contracts/capture';
 
 /** Samples of a capture's head the preview runs on (2^18). */
 export const PREVIEW_HEAD_SAMPLES = 1 << 18;
@@ -15,17 +16,6 @@ export const PREVIEW_SPECTRUM_POINTS = 2048;
 const PREVIEW_SPECTROGRAM_COLUMNS = 512;
 /** Samples per block handed to the runner: small enough that a cancel is seen within a few ms. */
 const PREVIEW_BLOCK_SAMPLES = 16_384;
-
-/** What the worker needs to know of a capture to fetch and decode its head. */
-export interface PreviewCapture {
-  id: string;
-  datatype: string;
-  layout: SampleType;
-  sampleRate: number;
-  centerFrequency: number | null;
-  sampleCount: number;
-  bytesPerSample: number;
-}
 
 export type PreviewRequest = { type: 'run'; runId: number; document: ChainDocument; capture: PreviewCapture } | { type: 'cancel'; runId: number };
 

@@ -6,7 +6,8 @@
 import { parseDatatype } from '../../dsp/formats/datatype';
 import { SampleDecoder } from '../../dsp/formats/sample-decoder';
 import { isAbortError, ChainRunError } from '../../dsp/chain/run-error';
-import { PREVIEW_HEAD_SAMPLES, previewOnHead, type PreviewCapture, type PreviewReply, type PreviewRequest } from './preview-protocol';
+import { streamFormatOf, type PreviewCapture } from '../../contracts/capture';
+import { PREVIEW_HEAD_SAMPLES, previewOnHead, type PreviewReply, type PreviewRequest } from './preview-protocol';
 
 const heads = new Map<string, Promise<Float32Array>>();
 let current: { runId: number; controller: AbortController } | null = null;
@@ -47,8 +48,7 @@ async function run(request: Extract<PreviewRequest, { type: 'run' }>): Promise<v
     const fetched = performance.now();
     if (controller.signal.aborted) return;
     const { capture } = request;
-    const input = { sampleRate: capture.sampleRate, sampleType: capture.layout, ...(capture.centerFrequency !== null ? { centerFrequency: capture.centerFrequency } : {}) };
-    const result = await previewOnHead(request.document, input, head, controller.signal);
+    const result = await previewOnHead(request.document, streamFormatOf(capture), head, controller.signal);
     reply = { type: 'result', runId: request.runId, ...result, sampleRate: capture.sampleRate, fetchMs: fetched - started, runMs: performance.now() - fetched };
   } catch (error) {
     if (isAbortError(error)) return;

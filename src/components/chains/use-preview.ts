@@ -5,7 +5,8 @@
  */
 import { useEffect, useRef, useState } from 'react';
 import type { ChainDocument } from '@/dsp/chain/document';
-import type { PreviewCapture, PreviewProbe, PreviewReply } from './preview-protocol';
+import type { PreviewCapture } from '@/contracts/capture';
+import type { PreviewProbe, PreviewReply } from './preview-protocol';
 
 /** Quiet time after an edit before the preview runs (ms). */
 export const PREVIEW_DEBOUNCE_MS = 250;

@@ -1,10 +1,7 @@
-/** The error body every Quadrille endpoint answers with: `{ error: { code, message, field } }`. */
-export interface ApiError {
-  code: string;
-  message: string;
-  /** The input field the problem is about, when there is one. */
-  field?: string | null;
-}
+import { apiErrorOf, type ApiErrorInfo } from '@/contracts/errors';
+
+/** The error every Quadrille endpoint answers with (`{ error: ApiError }`), or one made here for a network failure. */
+export type ApiError = ApiErrorInfo;
 
 /** The outcome of a JSON request: the parsed body on success, the API error otherwise. */
 export type ApiResult<T> = { ok: true; status: number; data: T } | { ok: false; status: number; error: ApiError };
@@ -20,7 +17,7 @@ export async function requestJson<T>(method: string, url: string, body?: unknown
       body: body === undefined ? undefined : JSON.stringify(body),
     });
   } catch {
-    return { ok: false, status: 0, error: { code: 'network', message: 'The server could not be reached. Check the connection and try again.' } };
+    return { ok: false, status: 0, error: { code: 'network', message: 'The server could not be reached. Check the connection and try again.', field: null } };
   }
   const text = await response.text();
   let parsed: unknown = null;
@@ -30,11 +27,11 @@ export async function requestJson<T>(method: string, url: string, body?: unknown
     // A proxy error page or similar: fall through to the generic message below.
   }
   if (response.ok) return { ok: true, status: response.status, data: parsed as T };
-  const error = (parsed as { error?: ApiError } | null)?.error;
-  if (error && typeof error.message === 'string') return { ok: false, status: response.status, error };
+  const error = apiErrorOf(parsed);
+  if (error) return { ok: false, status: response.status, error };
   return {
     ok: false,
     status: response.status,
-    error: { code: 'http_' + response.status, message: `The server answered ${response.status} ${response.statusText}.`.trim() },
+    error: { code: 'http_' + response.status, message: `The server answered ${response.status} ${response.statusText}.`.trim(), field: null },
   };
 }

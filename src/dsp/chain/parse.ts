@@ -96,21 +96,23 @@ export function parseChainDocument(json: unknown, registry: Record<string, Stage
   const stages: ChainStage[] = [];
   const firstIndexOfId = new Map<string, number>();
   rawStages.forEach((raw, index) => {
+    // Every problem of this stage carries its position: ids may be missing or repeated.
+    const push = (...found: ChainIssue[]) => issues.push(...found.map((issue) => ({ ...issue, stageIndex: index })));
     const rawObject = isPlainObject(raw) ? raw : {};
     const label = stageLabel(index, rawObject.id, rawObject.kind);
     const stageId = typeof rawObject.id === 'string' ? rawObject.id : undefined;
     if (!isPlainObject(raw)) {
-      issues.push(error(ISSUE_CODES.invalidDocument, `${label}: must be an object with id, kind and params`, undefined, stageId));
+      push(error(ISSUE_CODES.invalidDocument, `${label}: must be an object with id, kind and params`, undefined, stageId));
       return;
     }
     const envelope = stageEnvelopeSchema.safeParse(raw);
     if (!envelope.success) {
-      issues.push(...zodIssues(envelope.error.issues, label, stageId).map((i) => (i.field === 'id' ? { ...i, code: ISSUE_CODES.invalidStageId } : i)));
+      push(...zodIssues(envelope.error.issues, label, stageId).map((i) => (i.field === 'id' ? { ...i, code: ISSUE_CODES.invalidStageId } : i)));
     }
     if (stageId !== undefined) {
       const earlier = firstIndexOfId.get(stageId);
       if (earlier !== undefined) {
-        issues.push(error(ISSUE_CODES.duplicateStageId, `${label}: id: duplicate stage id ${JSON.stringify(stageId)} (already used by stages[${earlier}])`, 'id', stageId));
+        push(error(ISSUE_CODES.duplicateStageId, `${label}: id: duplicate stage id ${JSON.stringify(stageId)} (already used by stages[${earlier}])`, 'id', stageId));
       } else {
         firstIndexOfId.set(stageId, index);
       }
@@ -118,13 +120,13 @@ export function parseChainDocument(json: unknown, registry: Record<string, Stage
     if (typeof raw.kind !== 'string' || raw.kind === '') return;
     const definition = Object.prototype.hasOwnProperty.call(registry, raw.kind) ? registry[raw.kind] : undefined;
     if (!definition) {
-      issues.push(error(ISSUE_CODES.unknownStageKind, `${label}: ${unknownKindMessage(raw.kind, registry)}`, 'kind', stageId));
+      push(error(ISSUE_CODES.unknownStageKind, `${label}: ${unknownKindMessage(raw.kind, registry)}`, 'kind', stageId));
       return;
     }
     if (!envelope.success) return;
     const params = definition.schema.safeParse(envelope.data.params);
     if (!params.success) {
-      issues.push(...zodIssues(params.error.issues, label, stageId, definition));
+      push(...zodIssues(params.error.issues, label, stageId, definition));
       return;
     }
     stages.push({ ...envelope.data, params: params.data as Record<string, unknown> });
@@ -150,6 +152,6 @@ export function assertChainDocument(json: unknown, registry: Record<string, Stag
 export const chainDocumentSchema = z.unknown().transform((value, ctx): ChainDocument => {
   const result = parseChainDocument(value);
   if (result.ok) return result.document;
-  for (const issue of result.issues) ctx.addIssue({ code: z.ZodIssueCode.custom, message: issue.message, params: { code: issue.code, stageId: issue.stageId, field: issue.field } });
+  for (const issue of result.issues) ctx.addIssue({ code: z.ZodIssueCode.custom, message: issue.message, params: { code: issue.code, stageId: issue.stageId, stageIndex: issue.stageIndex, field: issue.field } });
   return z.NEVER;
 });

@@ -48,9 +48,9 @@ export function checkStreamFormat(format: StreamFormat, name = 'inputFormat'): v
   valuesPerSample(format.sampleType);
 }
 
-function withStage(issue: ChainIssue, label: string, stageId: string): ChainIssue {
+function withStage(issue: ChainIssue, label: string, stageId: string, stageIndex: number): ChainIssue {
   const fieldPrefix = issue.field && !issue.message.startsWith(issue.field) ? `${issue.field}: ` : '';
-  return { ...issue, stageId, message: `${label}: ${fieldPrefix}${issue.message}` };
+  return { ...issue, stageId, stageIndex, message: `${label}: ${fieldPrefix}${issue.message}` };
 }
 
 /** Chain-level checks of one (not bypassed, accepted) stage, skipping fields the stage already reported on. */
@@ -101,7 +101,7 @@ export function resolveChain(doc: ChainDocument, inputFormat: StreamFormat, regi
     const input = current;
     const resolved: ResolvedStage = { stageId: stage.id, kind: stage.kind, index, input, output: input, issues: [], bypass: stage.bypass, probe: stage.probe };
     const fail = (code: string, message: string, field?: string) => {
-      resolved.issues.push(withStage({ severity: 'error', code, message, ...(field ? { field } : {}) }, label, stage.id));
+      resolved.issues.push(withStage({ severity: 'error', code, message, ...(field ? { field } : {}) }, label, stage.id, index));
     };
     const definition = Object.prototype.hasOwnProperty.call(registry, stage.kind) ? registry[stage.kind] : undefined;
     if (!definition) {
@@ -127,8 +127,8 @@ export function resolveChain(doc: ChainDocument, inputFormat: StreamFormat, regi
     try {
       const { output, issues } = definition.propagate(parsed.data, input);
       resolved.output = output;
-      const own = issues.map((i) => withStage(i, label, stage.id));
-      const extra = chainChecks(parsed.data as Record<string, unknown>, input, output, issues).map((i) => withStage(i, label, stage.id));
+      const own = issues.map((i) => withStage(i, label, stage.id, index));
+      const extra = chainChecks(parsed.data as Record<string, unknown>, input, output, issues).map((i) => withStage(i, label, stage.id, index));
       resolved.issues.push(...own, ...extra);
     } catch (cause) {
       fail(ISSUE_CODES.propagateFailed, cause instanceof Error ? cause.message : String(cause));

@@ -25,13 +25,30 @@ export interface Datatype extends ValueEncoding {
   name: string;
 }
 
+/**
+ * What kind of format problem: `truncated` when the bytes stop short of what the format or header
+ * promises, `invalid` for anything else. Callers decide on this, never on the message's wording.
+ */
+export type FormatErrorCode = 'truncated' | 'invalid';
+
+/** Facts a FormatError carries beside its message. */
+export interface FormatErrorFacts {
+  code?: FormatErrorCode;
+  /** Index of the sample at fault (0-based, from the start of the stream), when one is. */
+  sampleIndex?: number;
+}
+
 /** Error for any malformed capture description or sample data; `field` names what was wrong. */
 export class FormatError extends Error {
   readonly field?: string;
-  constructor(message: string, field?: string) {
+  readonly code: FormatErrorCode;
+  readonly sampleIndex: number | null;
+  constructor(message: string, field?: string, facts: FormatErrorFacts = {}) {
     super(message);
     this.name = 'FormatError';
     this.field = field;
+    this.code = facts.code ?? 'invalid';
+    this.sampleIndex = facts.sampleIndex ?? null;
   }
 }
 

@@ -50,7 +50,7 @@ export class Pcm24Widener {
   /** Ends the stream; FormatError (field `body`) when it stopped inside a value. */
   end(): void {
     if (this.carryLength > 0) {
-      throw new FormatError(`body: the 24-bit sample data ends ${this.carryLength} byte(s) into a value`, 'body');
+      throw new FormatError(`body: the 24-bit sample data ends ${this.carryLength} byte(s) into a value`, 'body', { code: 'truncated' });
     }
   }
 }

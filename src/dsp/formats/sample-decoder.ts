@@ -96,6 +96,7 @@ export class SampleDecoder {
       throw new FormatError(
         `data: ${this.carryLength} trailing byte(s) after sample ${this.samples} do not make a whole sample of ${this.bytesPerSample} bytes (truncated file or wrong datatype?)`,
         'data',
+        { code: 'truncated', sampleIndex: this.samples },
       );
     }
   }
@@ -113,7 +114,7 @@ export class SampleDecoder {
       if (!Number.isFinite(v)) {
         const index = this.samples + Math.floor(k / this.valuesPerSample);
         const part = this.valuesPerSample === 1 ? '' : this.layout === 'complex' ? (k % 2 ? ' (Q)' : ' (I)') : ` (channel ${k % 2})`;
-        throw new FormatError(`data: sample ${index}${part} is ${v} (NaN or infinite values are not valid samples)`, 'data');
+        throw new FormatError(`data: sample ${index}${part} is ${v} (NaN or infinite values are not valid samples)`, 'data', { sampleIndex: index });
       }
     }
   }

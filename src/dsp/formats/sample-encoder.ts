@@ -78,7 +78,7 @@ export class SampleEncoder {
     for (let k = 0; k < values.length; k++) {
       if (!Number.isFinite(values[k])) {
         const index = this.samples + Math.floor(k / this.valuesPerSample);
-        throw new FormatError(`data: sample ${index} is ${values[k]}; NaN or infinite values cannot be written`, 'data');
+        throw new FormatError(`data: sample ${index} is ${values[k]}; NaN or infinite values cannot be written`, 'data', { sampleIndex: index });
       }
     }
   }

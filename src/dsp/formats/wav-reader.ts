@@ -92,6 +92,7 @@ export class WavReader {
       throw new FormatError(
         this.position < 12 ? `truncated: ${this.position} bytes is too short for a RIFF/WAVE header` : 'truncated: file ends before the fmt chunk',
         'riff',
+        { code: 'truncated' },
       );
     }
     if (!this.format) throw new FormatError('fmt: no fmt chunk before the end of the RIFF data', 'fmt');
@@ -100,12 +101,13 @@ export class WavReader {
       throw new FormatError(
         `truncated: data chunk declares ${this.dataBytes} bytes but the file ends after ${this.dataBytes! - this.dataRemaining}`,
         'data',
+        { code: 'truncated' },
       );
     }
     // A missing final pad byte is tolerated: many writers omit it and no data is lost.
     const missing = this.riffEnd - this.position;
     if (this.state !== 'done' && missing > 1) {
-      throw new FormatError(`truncated: RIFF header declares ${this.riffEnd} bytes but the file ends after ${this.position}`, 'riff.size');
+      throw new FormatError(`truncated: RIFF header declares ${this.riffEnd} bytes but the file ends after ${this.position}`, 'riff.size', { code: 'truncated' });
     }
     this.decoder?.end();
   }

@@ -1,7 +1,10 @@
 /**
  * API errors: each carries an HTTP status, a stable machine-readable code, a sentence for people
- * and, when one input field is at fault, that field's name (dot path for nested fields).
+ * and, when one input field is at fault, that field's name (dot path for nested fields). Facts
+ * such as the stage or sample at fault travel as fields of their own (the body's shape is
+ * `apiErrorBodySchema` in src/contracts/errors.ts).
  */
+import type { ApiErrorBody, ApiErrorFacts } from '@/contracts/errors';
 
 export class ApiError extends Error {
   constructor(
@@ -11,10 +14,17 @@ export class ApiError extends Error {
     readonly field: string | null = null,
     /** Extra response headers, e.g. Retry-After. */
     readonly headers: Record<string, string> = {},
+    /** Facts beside the message (stage, sample), rendered as fields of the error body. */
+    readonly facts: ApiErrorFacts = {},
   ) {
     super(message);
     this.name = 'ApiError';
   }
+}
+
+/** The JSON body that renders `error`. */
+export function apiErrorBody(error: ApiError): ApiErrorBody {
+  return { error: { code: error.code, message: error.message, field: error.field, ...error.facts } };
 }
 
 /** 400: the request is malformed or a field is invalid. */
@@ -58,8 +68,8 @@ export function unsupportedMediaType(expected: string): ApiError {
 }
 
 /** 422: well-formed, but the change is not possible in the current state. */
-export function unprocessable(code: string, message: string, field: string | null = null): ApiError {
-  return new ApiError(422, code, message, field);
+export function unprocessable(code: string, message: string, field: string | null = null, facts: ApiErrorFacts = {}): ApiError {
+  return new ApiError(422, code, message, field, {}, facts);
 }
 
 /** 429: too many attempts; retry after `retryAfterSeconds` (s). */

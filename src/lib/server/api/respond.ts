@@ -1,8 +1,9 @@
 /**
  * The one place API answers are rendered: JSON bodies, and errors as
- * `{ "error": { "code", "message", "field" } }`.
+ * `{ "error": { "code", "message", "field" } }` (plus any facts, see src/contracts/errors.ts).
  */
-import { ApiError } from './errors';
+import type { ApiErrorBody } from '@/contracts/errors';
+import { ApiError, apiErrorBody } from './errors';
 
 const jsonHeaders = { 'Content-Type': 'application/json; charset=utf-8', 'Cache-Control': 'no-store' };
 
@@ -19,8 +20,9 @@ export function noContent(): Response {
 /** Renders an ApiError; anything else is logged and becomes a 500 that reveals nothing. */
 export function errorResponse(error: unknown): Response {
   if (error instanceof ApiError) {
-    return json({ error: { code: error.code, message: error.message, field: error.field } }, error.status, error.headers);
+    return json(apiErrorBody(error), error.status, error.headers);
   }
   console.error(error);
-  return json({ error: { code: 'internal_error', message: 'Something went wrong on the server.', field: null } }, 500);
+  const body: ApiErrorBody = { error: { code: 'internal_error', message: 'Something went wrong on the server.', field: null } };
+  return json(body, 500);
 }

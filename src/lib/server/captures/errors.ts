@@ -20,7 +20,7 @@ export function ingestError(error: unknown, allowance: Allowance | null): unknow
   if (error instanceof ApiError) return error;
   if (error instanceof FormatError) {
     const field = error.field ?? 'body';
-    const code = field === 'body' ? (/truncated|ends/.test(error.message) ? 'truncated' : 'invalid_body') : 'invalid_field';
+    const code = field === 'body' ? (error.code === 'truncated' ? 'truncated' : 'invalid_body') : 'invalid_field';
     return unprocessable(code, error.message, field);
   }
   if (error instanceof ObjectTooLargeError) {

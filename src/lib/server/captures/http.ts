@@ -4,6 +4,7 @@
  */
 import { Readable } from 'node:stream';
 import type { Actor } from '@/lib/permissions';
+import { apiErrorBody } from '../api/errors';
 import { errorResponse, json } from '../api/respond';
 import { DuplicateCaptureError } from './errors';
 import { presentCapture } from './present';
@@ -12,7 +13,7 @@ import { presentCapture } from './present';
 export function captureErrorResponse(error: unknown, viewer: Actor, headers: Record<string, string> = {}): Response {
   if (error instanceof DuplicateCaptureError) {
     return json(
-      { error: { code: error.code, message: error.message, field: null }, capture: presentCapture(error.existing, viewer) },
+      { ...apiErrorBody(error), capture: presentCapture(error.existing, viewer) },
       409,
       headers,
     );

@@ -4,7 +4,7 @@ export { createSynthesizedCapture, parseSpecField, type SynthRequest } from './s
 export { updateCapture, deleteCapture, checkAnnotations, type CaptureChanges } from './update';
 export { listCaptures, sortKeys, type CaptureListQuery, type SortKey } from './list';
 export { loadCaptureFor, refusal } from './access';
-export { presentCapture, type PresentedCapture } from './present';
+export { presentCapture } from './present';
 export { DuplicateCaptureError, ingestError } from './errors';
 export { getObjectStore, objectStoreForDatabase, captureObjectKey } from './store';
 export { requestBody } from './request-body';

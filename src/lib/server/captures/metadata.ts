@@ -6,34 +6,23 @@
  */
 import { FormatError, checkLayoutFits, parseDatatype, parseLayout, type Datatype } from '@/dsp/formats';
 import type { SampleType } from '@/dsp/types';
+import { captureLimits, visibilities, type Capture, type DescribedField, type Visibility } from '@/contracts/capture';
 import { badRequest, unprocessable, type ApiError } from '../api/errors';
 
-export const visibilities = ['private', 'team'] as const;
-export type Visibility = (typeof visibilities)[number];
+export { visibilities, type Visibility };
 
 /** Limits on descriptive fields (characters, counts). */
-export const limits = { name: 200, notes: 10_000, tag: 40, tags: 20, sampleRateHz: 1e12 } as const;
+export const limits = captureLimits;
 
-/** The full description of a capture's samples and how it is shown. */
-export interface CaptureDescription {
-  name: string;
+/** The full description of a capture's samples (the contract's, with the datatype parsed) and how it is shown. */
+export type CaptureDescription = Pick<Capture, 'name' | 'layout' | 'sampleRate' | 'centerFrequency' | 'visibility' | 'tags' | 'notes' | 'annotations'> & {
   datatype: Datatype;
-  layout: SampleType;
-  /** Samples per second (Hz). */
-  sampleRate: number;
-  /** RF frequency of 0 Hz in the capture (Hz), or null when unknown. */
-  centerFrequency: number | null;
-  visibility: Visibility;
-  tags: string[];
-  notes: string;
-  /** SigMF annotation objects (`core:sample_start`, ...). */
-  annotations: Record<string, unknown>[];
-}
+};
 
 /** Part of a description, as one source (a request, a file header) states it. */
 export type StatedFields = Partial<CaptureDescription>;
 
-type Key = 'name' | 'datatype' | 'layout' | 'sampleRate' | 'centerFrequency' | 'visibility' | 'tags' | 'notes';
+type Key = DescribedField;
 /** How each field is spelled in the caller's input. */
 export type FieldNames = Record<Key, string>;
 

@@ -3,44 +3,13 @@
  * storage keys and new columns cannot leak.
  */
 import { can, type Actor } from '@/lib/permissions';
-import type { SampleType } from '@/dsp/types';
 import { parseDatatype } from '@/dsp/formats';
-import type { Visibility } from './metadata';
-import { parseJsonColumn, type CaptureSource, type CaptureWithOwner } from './rows';
+import type { Capture } from '@/contracts/capture';
+import { parseJsonColumn, type CaptureWithOwner } from './rows';
 import { bytesPerSampleOf } from './ingest/whole-samples';
 
-export interface PresentedCapture {
-  id: string;
-  name: string;
-  owner: { id: string; name: string };
-  visibility: Visibility;
-  /** Samples per second (Hz). */
-  sampleRate: number;
-  /** Hz, or null when unknown. */
-  centerFrequency: number | null;
-  /** SigMF datatype string. */
-  datatype: string;
-  layout: SampleType;
-  sampleCount: number;
-  /** Bytes stored. */
-  byteSize: number;
-  /** Bytes per sample, every channel. */
-  bytesPerSample: number;
-  /** sampleCount / sampleRate (s). */
-  durationSeconds: number;
-  sha256: string;
-  source: CaptureSource;
-  synthSpec: unknown | null;
-  notes: string;
-  tags: string[];
-  /** SigMF annotation objects. */
-  annotations: Record<string, unknown>[];
-  createdAt: string;
-  permissions: { update: boolean; delete: boolean };
-}
-
-/** The capture as `viewer` sees it, with what `viewer` may do to it. */
-export function presentCapture(row: CaptureWithOwner, viewer: Actor): PresentedCapture {
+/** The capture as `viewer` sees it (the contract's Capture), with what `viewer` may do to it. */
+export function presentCapture(row: CaptureWithOwner, viewer: Actor): Capture {
   const resource = { ownerId: row.owner_id, visibility: row.visibility };
   const sampleCount = Number(row.sample_count);
   return {

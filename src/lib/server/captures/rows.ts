@@ -1,26 +1,27 @@
 /**
- * The captures table as rows, and the one query every read starts from (capture + owner name).
+ * The captures table as rows (the storage mapping of the capture contract in
+ * src/contracts/capture.ts, whose field types it borrows), and the one query every read starts
+ * from (capture + owner name).
  */
 import type { Knex } from 'knex';
-import type { SampleType } from '@/dsp/types';
-import type { Visibility } from './metadata';
+import type { Capture, CaptureFormat, CaptureSource, RunJobCapture } from '@/contracts/capture';
 
-export type CaptureSource = 'uploaded' | 'synthesized';
+export type { CaptureSource };
 
 export interface CaptureRow {
   id: string;
   owner_id: string;
-  name: string;
-  visibility: Visibility;
+  name: Capture['name'];
+  visibility: Capture['visibility'];
   /** Hz. */
-  sample_rate: number;
+  sample_rate: Capture['sampleRate'];
   /** Hz, or null. */
-  center_frequency: number | null;
-  datatype: string;
-  layout: SampleType;
+  center_frequency: Capture['centerFrequency'];
+  datatype: Capture['datatype'];
+  layout: Capture['layout'];
   sample_count: number;
   byte_size: number;
-  sha256: string;
+  sha256: Capture['sha256'];
   storage_key: string;
   source: CaptureSource;
   /** JSON text of the synthesizer spec (defaults filled in), or null. */
@@ -50,6 +51,23 @@ export function captureQuery(db: Knex): Knex.QueryBuilder<CaptureWithOwner, Capt
 export async function findCapture(db: Knex, id: string): Promise<CaptureWithOwner | undefined> {
   if (!/^[0-9a-f-]{36}$/i.test(id)) return undefined;
   return (await captureQuery(db).where('captures.id', id).first()) as CaptureWithOwner | undefined;
+}
+
+/** The fields of a row that say what stream it feeds into a chain (see streamFormatOf). */
+export function captureFormatOf(row: CaptureRow): CaptureFormat {
+  return { sampleRate: row.sample_rate, layout: row.layout, centerFrequency: row.center_frequency };
+}
+
+/** What a run worker is told about the capture of this row. */
+export function runJobCaptureOf(row: CaptureRow): RunJobCapture {
+  return {
+    id: row.id,
+    name: row.name,
+    storageKey: row.storage_key,
+    datatype: row.datatype,
+    ...captureFormatOf(row),
+    sampleCount: Number(row.sample_count),
+  };
 }
 
 /** Parses a JSON text column, falling back to `fallback` if it is not valid JSON. */

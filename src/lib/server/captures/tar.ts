@@ -84,7 +84,7 @@ export async function nextTarEntry(reader: ByteReader): Promise<TarEntry | null>
   for (;;) {
     const block = await reader.read(TAR_BLOCK);
     if (block.byteLength === 0) return null;
-    if (block.byteLength < TAR_BLOCK) throw new FormatError('body: the archive ends inside a tar header (truncated upload)', 'body');
+    if (block.byteLength < TAR_BLOCK) throw new FormatError('body: the archive ends inside a tar header (truncated upload)', 'body', { code: 'truncated' });
     if (block.every((byte) => byte === 0)) return null;
     if (!checksumOk(block)) throw new FormatError('body: a tar header fails its checksum (not a tar archive, or damaged)', 'body');
     const type = String.fromCharCode(block[156]!);

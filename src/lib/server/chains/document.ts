@@ -16,18 +16,16 @@ export interface StoredDocument {
   hash: string;
 }
 
-const stageMessage = /^stages\[(\d+)\]/;
 const parameterCodes: ReadonlySet<string> = new Set([ISSUE_CODES.invalidParameter, ISSUE_CODES.unknownParameter]);
 
 /**
  * The request field an engine issue is about, from the body's root: `document.stages[2].params.cutoff`,
- * `document.stages[0].kind`, `document.version`. The engine names the stage by position at the
- * start of its message, which is the one reliable index (ids may be missing or duplicated).
+ * `document.stages[0].kind`, `document.version`. The issue's `stageIndex` is the one reliable
+ * index (ids may be missing or duplicated).
  */
 export function issueField(issue: ChainIssue, root = 'document'): string {
-  const stage = stageMessage.exec(issue.message);
-  if (!stage) return issue.field ? `${root}.${issue.field}` : root;
-  const base = `${root}.stages[${stage[1]}]`;
+  if (issue.stageIndex === undefined) return issue.field ? `${root}.${issue.field}` : root;
+  const base = `${root}.stages[${issue.stageIndex}]`;
   if (parameterCodes.has(issue.code)) return issue.field ? `${base}.params.${issue.field}` : `${base}.params`;
   return issue.field ? `${base}.${issue.field}` : base;
 }
@@ -36,7 +34,8 @@ export function issueField(issue: ChainIssue, root = 'document'): string {
 export function invalidChain(issues: ChainIssue[], root = 'document'): ApiError {
   const first = issues[0]!;
   const more = issues.length > 1 ? ` (and ${issues.length - 1} more problem${issues.length > 2 ? 's' : ''})` : '';
-  return unprocessable('invalid_chain', `${first.message}${more}`, issueField(first, root));
+  const facts = { ...(first.stageIndex !== undefined ? { stageIndex: first.stageIndex } : {}), ...(first.stageId !== undefined ? { stageId: first.stageId } : {}) };
+  return unprocessable('invalid_chain', `${first.message}${more}`, issueField(first, root), facts);
 }
 
 /** Validates a chain document from a request body (422 `invalid_chain` naming the field) and prepares it for storage. */

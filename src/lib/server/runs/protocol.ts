@@ -4,26 +4,14 @@
  * the main thread owns every write to SQLite.
  */
 import type { ChainDocument } from '@/dsp/chain';
-import type { SampleType } from '@/dsp/types';
+import type { RunJobCapture } from '@/contracts/capture';
 
 /** What a worker is asked to do (sent as workerData). */
 export interface RunJob {
   runId: string;
   document: ChainDocument;
   chain: { id: string; name: string; revision: number };
-  capture: {
-    id: string;
-    name: string;
-    storageKey: string;
-    /** SigMF datatype, e.g. cf32_le. */
-    datatype: string;
-    layout: SampleType;
-    /** Hz. */
-    sampleRate: number;
-    /** Hz, or null. */
-    centerFrequency: number | null;
-    sampleCount: number;
-  };
+  capture: RunJobCapture;
   /** Fresh object key the output samples go to. */
   outputKey: string;
   /** Least time (ms) between two progress messages. */

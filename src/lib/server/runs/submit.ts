@@ -8,10 +8,10 @@ import { randomUUID } from 'node:crypto';
 import type { Knex } from 'knex';
 import { access, type Actor } from '@/lib/permissions';
 import { propagateChain, type ChainDocument } from '@/dsp/chain';
-import type { StreamFormat } from '@/dsp/types';
+import { streamFormatOf } from '@/contracts/capture';
 import { ENGINE_VERSION } from '@/dsp/version';
 import { ApiError, conflict, forbidden, unprocessable } from '../api/errors';
-import { findCapture, type CaptureWithOwner } from '../captures/rows';
+import { captureFormatOf, findCapture, type CaptureWithOwner } from '../captures/rows';
 import { chainResource, findChain, findRevision } from '../chains/rows';
 import { cacheKey, computationHash } from './cache-key';
 import type { RunRow, RunStatus, RunView } from './rows';
@@ -53,12 +53,6 @@ function missing(what: string, field: string): ApiError {
   return new ApiError(404, 'not_found', `No such ${what}.`, field);
 }
 
-function formatOf(capture: CaptureWithOwner): StreamFormat {
-  const format: StreamFormat = { sampleRate: capture.sample_rate, sampleType: capture.layout };
-  if (capture.center_frequency !== null) format.centerFrequency = capture.center_frequency;
-  return format;
-}
-
 async function loadCaptures(db: Knex, user: Actor, request: RunRequest): Promise<CaptureWithOwner[]> {
   const captures: CaptureWithOwner[] = [];
   for (const [index, id] of request.captureIds.entries()) {
@@ -92,7 +86,7 @@ export async function submitRuns(db: Knex, user: Actor, request: RunRequest, ret
   // A cached result proves the chain ran on those bytes; only the others are checked.
   for (const [index, capture] of captures.entries()) {
     if (cached.has(keys[index]!)) continue;
-    const errors = propagateChain(document, formatOf(capture)).flatMap((stage) => stage.issues).filter((issue) => issue.severity === 'error');
+    const errors = propagateChain(document, streamFormatOf(captureFormatOf(capture))).flatMap((stage) => stage.issues).filter((issue) => issue.severity === 'error');
     if (errors.length > 0) {
       throw unprocessable('chain_cannot_run', `The chain cannot run on capture "${capture.name}": ${errors[0]!.message}`, request.captureField(index));
     }

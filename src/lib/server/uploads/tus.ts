@@ -9,7 +9,7 @@ import { randomBytes } from 'node:crypto';
 import { Server, type Upload } from '@tus/server';
 import { FileStore } from '@tus/file-store';
 import type { SessionUser } from '../auth/session';
-import { ApiError, notFound, unauthenticated, unprocessable } from '../api/errors';
+import { ApiError, apiErrorBody, notFound, unauthenticated, unprocessable } from '../api/errors';
 import { getDb } from '../db';
 import { assertFits, captureAllowance } from '../quota';
 import { bytesPerSampleOf, createCapture, DuplicateCaptureError, getObjectStore, ingestError, jsonFieldNames } from '../captures';
@@ -28,7 +28,7 @@ const senders = new WeakMap<Request, SessionUser>();
 function tusError(error: unknown): { status_code: number; body: string } {
   const mapped = ingestError(error, null);
   if (mapped instanceof ApiError) {
-    return { status_code: mapped.status, body: JSON.stringify({ error: { code: mapped.code, message: mapped.message, field: mapped.field } }) };
+    return { status_code: mapped.status, body: JSON.stringify(apiErrorBody(mapped)) };
   }
   throw mapped;
 }

@@ -63,7 +63,7 @@ export class ByteReader {
   async readExact(length: number, field: string, what: string): Promise<Uint8Array> {
     const bytes = await this.read(length);
     if (bytes.byteLength < length) {
-      throw new FormatError(`${field}: the body ends inside ${what} (truncated upload)`, field);
+      throw new FormatError(`${field}: the body ends inside ${what} (truncated upload)`, field, { code: 'truncated' });
     }
     return bytes;
   }
@@ -74,7 +74,7 @@ export class ByteReader {
     while (left > 0) {
       const chunk = await this.pull();
       if (!chunk) {
-        throw new FormatError(`${field}: the body ends ${left} bytes before the end of ${what} (truncated upload)`, field);
+        throw new FormatError(`${field}: the body ends ${left} bytes before the end of ${what} (truncated upload)`, field, { code: 'truncated' });
       }
       const take = Math.min(left, chunk.byteLength);
       this.unread(chunk.subarray(take));

@@ -68,6 +68,6 @@ export class FiniteScanner {
     const perSample = valuesPerSample(this.layout);
     const sample = Math.floor(index / perSample);
     const part = perSample === 1 ? '' : this.layout === 'complex' ? (index % 2 ? ' (Q)' : ' (I)') : ` (channel ${index % 2})`;
-    throw new FormatError(`body: sample ${sample}${part} is ${value} (NaN or infinite values are not valid samples)`, 'body');
+    throw new FormatError(`body: sample ${sample}${part} is ${value} (NaN or infinite values are not valid samples)`, 'body', { sampleIndex: sample });
   }
 }

@@ -41,7 +41,7 @@ export async function readWavHeader(reader: ByteReader, asComplex: boolean): Pro
         // Let the reader say what is missing (no fmt chunk, no data chunk, truncated header).
         wav.push(header);
         wav.end();
-        throw new FormatError('body: the WAV file ends before its data chunk', 'body');
+        throw new FormatError('body: the WAV file ends before its data chunk', 'body', { code: 'truncated' });
       }
       wav.push(header);
       if (wav.dataBytes !== null) break;
@@ -69,7 +69,7 @@ function ascii(header: Uint8Array): string {
 
 function asBodyError(error: unknown): unknown {
   if (error instanceof FormatError && error.field !== 'body' && error.field !== 'layout') {
-    return new FormatError(`body: WAV ${error.message}`, 'body');
+    return new FormatError(`body: WAV ${error.message}`, 'body', { code: error.code, ...(error.sampleIndex !== null ? { sampleIndex: error.sampleIndex } : {}) });
   }
   return error;
 }
