@@ -149,19 +149,24 @@ describe('read once', () => {
 describe('documentation', () => {
   const names = Object.keys(settingSchemas).sort();
 
-  /** Variable names in the first column of the README's tables. */
-  function readmeVariables(): string[] {
+  /** Rows of the README's variable tables: the names in the first column, the default in the second. */
+  function readmeRows(): Array<{ names: string[]; default: string }> {
     const readme = readFileSync('README.md', 'utf8');
-    const found = new Set<string>();
-    for (const line of readme.split('\n')) {
-      const first = /^\|([^|]*)\|/.exec(line)?.[1] ?? '';
-      for (const match of first.matchAll(/`([A-Z][A-Z0-9_]+)`/g)) found.add(match[1]!);
-    }
-    return [...found].sort();
+    return readme.split('\n').flatMap((line) => {
+      const cells = line.split('|').slice(1, -1).map((cell) => cell.trim());
+      const names = [...(cells[0] ?? '').matchAll(/`([A-Z][A-Z0-9_]+)`/g)].map((m) => m[1]!);
+      return names.length ? [{ names, default: (cells[1] ?? '').replace(/`/g, '') }] : [];
+    });
   }
 
   it('the README tables list exactly the variables of the schema', () => {
-    expect(readmeVariables()).toEqual(names);
+    expect(readmeRows().flatMap((row) => row.names).sort()).toEqual(names);
+  });
+
+  it('the README shows the default the schema documents', () => {
+    for (const row of readmeRows()) {
+      for (const name of row.names) expect(row.default, name).toBe(settingDocs[name]!.default);
+    }
   });
 
   it('every variable has a description, a unit and a default text', () => {

@@ -35,8 +35,8 @@ const fields = {
   QUADRILLE_S3_BUCKET: doc('QUADRILLE_S3_BUCKET', text(), 'text', '', 'bucket name (required with QUADRILLE_STORAGE=s3; must exist)'),
   QUADRILLE_S3_ENDPOINT: doc('QUADRILLE_S3_ENDPOINT', httpUrl(), 'URL', 'AWS', 'base URL of an S3-compatible service; unset means AWS'),
   QUADRILLE_S3_REGION: doc('QUADRILLE_S3_REGION', text('us-east-1'), 'text', 'us-east-1', 'bucket region'),
-  QUADRILLE_S3_ACCESS_KEY_ID: doc('QUADRILLE_S3_ACCESS_KEY_ID', text(), 'text', '', 'access key; set both keys or neither (then the SDK default chain)'),
-  QUADRILLE_S3_SECRET_ACCESS_KEY: doc('QUADRILLE_S3_SECRET_ACCESS_KEY', text(), 'text', '', 'secret of QUADRILLE_S3_ACCESS_KEY_ID'),
+  QUADRILLE_S3_ACCESS_KEY_ID: doc('QUADRILLE_S3_ACCESS_KEY_ID', text(), 'text', 'SDK default chain', 'access key; set both keys or neither (then the SDK default chain)'),
+  QUADRILLE_S3_SECRET_ACCESS_KEY: doc('QUADRILLE_S3_SECRET_ACCESS_KEY', text(), 'text', 'SDK default chain', 'secret of QUADRILLE_S3_ACCESS_KEY_ID'),
   QUADRILLE_S3_FORCE_PATH_STYLE: doc('QUADRILLE_S3_FORCE_PATH_STYLE', flag(false), 'flag', 'false', 'path-style bucket URLs (most self-hosted services)'),
 
   // Quotas and uploads
@@ -47,18 +47,18 @@ const fields = {
   QUADRILLE_UPLOAD_EXPIRY_HOURS: doc('QUADRILLE_UPLOAD_EXPIRY_HOURS', realNumber(24, 0, false, 'hours'), 'h', '24', 'unfinished resumable uploads are deleted this long after they started'),
 
   // Runs
-  QUADRILLE_RUN_CONCURRENCY: doc('QUADRILLE_RUN_CONCURRENCY', wholeNumber(() => Math.max(1, availableParallelism() - 1), 1), 'count', 'cores - 1', 'runs executing at once in this server'),
+  QUADRILLE_RUN_CONCURRENCY: doc('QUADRILLE_RUN_CONCURRENCY', wholeNumber(() => Math.max(1, availableParallelism() - 1), 1), 'count', 'cores - 1 (at least 1)', 'runs executing at once in this server'),
   QUADRILLE_RUN_MAX_PENDING: doc('QUADRILLE_RUN_MAX_PENDING', wholeNumber(100, 1), 'count', '100', 'queued + running runs one user may have (then 429)'),
   QUADRILLE_RUN_PROGRESS_MS: doc('QUADRILLE_RUN_PROGRESS_MS', wholeNumber(200, 10), 'ms', '200', 'least time between two progress updates of a run'),
   QUADRILLE_RUN_CANCEL_GRACE_MS: doc('QUADRILLE_RUN_CANCEL_GRACE_MS', wholeNumber(1500, 0), 'ms', '1500', 'time a cancelled worker gets to stop before it is terminated'),
   QUADRILLE_RUN_NICE: doc('QUADRILLE_RUN_NICE', wholeNumber(19, 0, 19), 'nice', '19', 'nice value of run worker threads (Linux)'),
   QUADRILLE_SSE_HEARTBEAT_MS: doc('QUADRILLE_SSE_HEARTBEAT_MS', wholeNumber(15_000, 100), 'ms', '15000', 'interval of the keep-alive comment on event streams'),
-  QUADRILLE_RUN_WORKER: doc('QUADRILLE_RUN_WORKER', text(), 'path', '', 'worker entry file, overriding the built-in lookup'),
+  QUADRILLE_RUN_WORKER: doc('QUADRILLE_RUN_WORKER', text(), 'path', 'built-in', 'worker entry file, overriding the built-in lookup'),
 
   // Command line
-  QUADRILLE_TIMING: doc('QUADRILLE_TIMING', looseFlag(), 'flag', '', 'the CLI prints start-up and run timings to stderr'),
-  QUADRILLE_DEBUG: doc('QUADRILLE_DEBUG', looseFlag(), 'flag', '', 'the CLI prints stack traces with source maps'),
-  QUADRILLE_CLI_NO_BUNDLE: doc('QUADRILLE_CLI_NO_BUNDLE', looseFlag(), 'flag', '', 'the CLI runs from source through tsx instead of a cached bundle'),
+  QUADRILLE_TIMING: doc('QUADRILLE_TIMING', looseFlag(), 'flag', 'off', 'the CLI prints start-up and run timings to stderr'),
+  QUADRILLE_DEBUG: doc('QUADRILLE_DEBUG', looseFlag(), 'flag', 'off', 'the CLI prints stack traces with source maps'),
+  QUADRILLE_CLI_NO_BUNDLE: doc('QUADRILLE_CLI_NO_BUNDLE', looseFlag(), 'flag', 'off', 'the CLI runs from source through tsx instead of a cached bundle'),
 };
 
 /** Names of every variable Quadrille reads. */
