@@ -1,6 +1,6 @@
 /**
  * Parameter-level difference between two chain documents, shared by the server (revision diff
- * endpoint) and the notebook (unsaved edits against the last revision). Pure: no imports.
+ * endpoint) and the notebook (unsaved edits against the last revision). Pure: it imports types only.
  *
  * Stages are matched by their stable id, never by position, so inserting a stage at the top
  * reports one addition rather than every later stage as changed. Among the stages both documents
@@ -9,6 +9,7 @@
  * (pasted taps, a list of measurements) is compared as one value, since a per-element report of a
  * 127-tap filter would bury the change.
  */
+import type { ChainDocument, ChainStage } from '@/contracts/chain';
 
 /** What happened to a stage (or, for document-level fields, `changed`). */
 export type ChainChangeKind = 'added' | 'removed' | 'moved' | 'changed';
@@ -31,21 +32,11 @@ export interface ChainChange {
   after?: unknown;
 }
 
-/** The parts of a stage the diff reads (a parsed ChainStage fits). */
-export interface DiffableStage {
-  id: string;
-  kind: string;
-  params?: Record<string, unknown>;
-  probe?: boolean;
-  bypass?: boolean;
-}
+/** The parts of a stage the diff reads: the contract's ChainStage, flags and parameters optional. */
+export type DiffableStage = Pick<ChainStage, 'id' | 'kind'> & Partial<Pick<ChainStage, 'params' | 'probe' | 'bypass'>>;
 
-/** The parts of a chain document the diff reads (a parsed ChainDocument fits). */
-export interface DiffableChain {
-  name?: string;
-  description?: string;
-  stages: readonly DiffableStage[];
-}
+/** The parts of a chain document the diff reads: the contract's ChainDocument, name optional. */
+export type DiffableChain = Partial<Pick<ChainDocument, 'name' | 'description'>> & { stages: readonly DiffableStage[] };
 
 function isPlainObject(value: unknown): value is Record<string, unknown> {
   return typeof value === 'object' && value !== null && !Array.isArray(value);

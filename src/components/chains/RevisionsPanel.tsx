@@ -5,7 +5,7 @@
 import { useEffect, useState } from 'react';
 import type { ChainChange } from '@/lib/chain-diff';
 import { buttonSmall } from '@/components/ui';
-import { chainsApi, type Revision } from './api';
+import { chainsApi, type RevisionSummary } from './api';
 
 interface RevisionsPanelProps {
   chainId: string;
@@ -23,7 +23,7 @@ export function shortTime(iso: string): string {
 }
 
 export default function RevisionsPanel({ chainId, latest, viewing, refreshKey, onView }: RevisionsPanelProps) {
-  const [items, setItems] = useState<Revision[] | null>(null);
+  const [items, setItems] = useState<RevisionSummary[] | null>(null);
   const [error, setError] = useState<string | null>(null);
   const [from, setFrom] = useState(Math.max(1, latest - 1));
   const [to, setTo] = useState(latest);

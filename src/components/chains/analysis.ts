@@ -5,7 +5,6 @@
  */
 import { parseChainDocument, type ChainParseResult } from '@/dsp/chain/parse';
 import { propagateChain, type StagePropagation } from '@/dsp/chain/propagate';
-import type { ChainDocument } from '@/dsp/chain/document';
 import type { ChainIssue, StreamFormat } from '@/dsp/types';
 import type { DraftDocument } from './draft';
 
@@ -30,7 +29,7 @@ export function analyseDraft(doc: DraftDocument, input: StreamFormat | undefined
   if (input) {
     try {
       // Stages with bad parameters pass their input on unchanged, so later stages are still checked.
-      propagation = propagateChain(parse.ok ? parse.document : (doc as ChainDocument), input);
+      propagation = propagateChain(parse.ok ? parse.document : doc, input);
     } catch {
       propagation = undefined;
     }

@@ -1,48 +1,13 @@
-/** Shapes of the chains API as the browser sees them (the contract in the chains plan) and its calls. */
+/** Calls of the chains API; the shapes are the chain contract's (src/contracts/chain.ts), the server's own. */
 import { requestJson, type ApiResult } from '@/components/forms/api';
 import type { ChainChange } from '@/lib/chain-diff';
+import type { Chain, ChainList, ChainWithRevision, RevisionSummary, RevisionWithDocument } from '@/contracts/chain';
+import type { Visibility } from '@/contracts/capture';
 
-export interface ChainPermissions {
-  update: boolean;
-  delete: boolean;
-  fork: boolean;
-  run: boolean;
-}
+export type { Chain, ChainList, ChainPermissions, ChainWithRevision, RevisionSummary, RevisionWithDocument } from '@/contracts/chain';
 
-export interface Revision {
-  chainId: string;
-  revision: number;
-  /** Present on single-revision answers; lists may leave it out. */
-  document?: unknown;
-  message: string;
-  author: { id: string; name: string };
-  createdAt: string;
-  hash: string;
-}
-
-export interface Chain {
-  id: string;
-  name: string;
-  description: string | null;
-  owner: { id: string; name: string };
-  visibility: 'private' | 'team';
-  latestRevision: number;
-  createdAt: string;
-  updatedAt: string;
-  forkedFrom: { chainId: string; revision: number } | null;
-  permissions: ChainPermissions;
-}
-
-export interface ChainWithRevision extends Chain {
-  revision: Revision;
-}
-
-export interface ChainList {
-  items: Chain[];
-  total: number;
-  page: number;
-  pageSize: number;
-}
+/** A revision as a list holds it: the summary, with its document when the answer carried one. */
+export type Revision = RevisionSummary & Partial<Pick<RevisionWithDocument, 'document'>>;
 
 const base = (id: string) => `/api/chains/${encodeURIComponent(id)}`;
 
@@ -53,14 +18,14 @@ export const chainsApi = {
     return requestJson<ChainList>('GET', `/api/chains?${params}`);
   },
   get: (id: string) => requestJson<ChainWithRevision>('GET', base(id)),
-  create: (body: { name: string; visibility: 'private' | 'team'; document: unknown; description?: string }) => requestJson<{ id: string; revision: number }>('POST', '/api/chains', body),
-  update: (id: string, body: { name?: string; description?: string; visibility?: 'private' | 'team' }) => requestJson<Chain>('PATCH', base(id), body),
+  create: (body: { name: string; visibility: Visibility; document: unknown; description?: string }) => requestJson<{ id: string; revision: number }>('POST', '/api/chains', body),
+  update: (id: string, body: { name?: string; description?: string; visibility?: Visibility }) => requestJson<Chain>('PATCH', base(id), body),
   remove: (id: string) => requestJson<null>('DELETE', base(id)),
-  revisions: (id: string) => requestJson<{ items: Revision[] }>('GET', `${base(id)}/revisions`),
-  revision: (id: string, n: number) => requestJson<Revision>('GET', `${base(id)}/revisions/${n}`),
-  save: (id: string, document: unknown, message: string) => requestJson<Revision>('POST', `${base(id)}/revisions`, { document, message }),
+  revisions: (id: string) => requestJson<{ items: RevisionSummary[] }>('GET', `${base(id)}/revisions`),
+  revision: (id: string, n: number) => requestJson<RevisionWithDocument>('GET', `${base(id)}/revisions/${n}`),
+  save: (id: string, document: unknown, message: string) => requestJson<RevisionWithDocument>('POST', `${base(id)}/revisions`, { document, message }),
   diff: (id: string, from: number, to: number) => requestJson<{ changes: ChainChange[] }>('GET', `${base(id)}/diff?from=${from}&to=${to}`),
-  restore: (id: string, revision: number, message?: string) => requestJson<Revision>('POST', `${base(id)}/restore`, { revision, ...(message ? { message } : {}) }),
+  restore: (id: string, revision: number, message?: string) => requestJson<RevisionWithDocument>('POST', `${base(id)}/restore`, { revision, ...(message ? { message } : {}) }),
   fork: (id: string, name?: string) => requestJson<{ id: string; revision: number }>('POST', `${base(id)}/fork`, name ? { name } : {}),
   exportUrl: (id: string, revision?: number) => `${base(id)}/export${revision ? `?revision=${revision}` : ''}`,
 };

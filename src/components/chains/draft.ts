@@ -3,26 +3,15 @@
  * invalid while someone edits it (a cut-off not typed yet). Pure operations return a new document;
  * the validation of record is parseChainDocument, run on every change.
  */
-import { CHAIN_FORMAT_VERSION, STAGE_ID_PATTERN } from '@/dsp/chain/document';
+import { CHAIN_FORMAT_VERSION, STAGE_ID_PATTERN, type ChainDocument, type ChainStage } from '@/contracts/chain';
 import type { StreamFormat } from '@/dsp/types';
 import { getStageDefinition } from '@/dsp/stages/index';
 
-/** One stage as the editor holds it: parameters not yet checked against the kind's schema. */
-export interface DraftStage {
-  id: string;
-  kind: string;
-  params: Record<string, unknown>;
-  probe: boolean;
-  bypass: boolean;
-}
+/** One stage as the editor holds it: the contract's stage, its parameters not yet checked against the kind's schema. */
+export type DraftStage = ChainStage;
 
-/** A chain document under edit (the shape of the chain format, version 1). */
-export interface DraftDocument {
-  version: typeof CHAIN_FORMAT_VERSION;
-  name: string;
-  description?: string;
-  stages: DraftStage[];
-}
+/** A chain document under edit: the contract's shape, possibly invalid until parseChainDocument says otherwise. */
+export type DraftDocument = ChainDocument;
 
 /** An empty chain document. */
 export function emptyDocument(name = ''): DraftDocument {

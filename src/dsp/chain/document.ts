@@ -17,45 +17,46 @@ export const MAX_STAGES = 64;
 /** Stage ids: 1 to 64 characters, letters, digits, '-', '_' or '.', starting with a letter or digit. */
 export const STAGE_ID_PATTERN = /^[A-Za-z0-9][A-Za-z0-9_.-]{0,63}$/;
 
-/** One stage of a chain; `params` have been checked against (and completed by) the kind's schema. */
-export interface ChainStage {
-  /** Stable id, unique within the chain; probes and results refer to it. */
-  id: string;
-  kind: string;
-  params: Record<string, unknown>;
-  /** Keep and plot this stage's output after a run. */
-  probe: boolean;
-  /** Pass the input through unchanged (the stage stays in the document). */
-  bypass: boolean;
-}
-
-/** A validated chain document. */
-export interface ChainDocument {
-  version: typeof CHAIN_FORMAT_VERSION;
-  name: string;
-  description?: string;
-  stages: ChainStage[];
-}
-
-/** The envelope of one stage, without the kind-specific parameter check. */
+/**
+ * The envelope of one stage, without the kind-specific parameter check. Its output is a stage of a
+ * chain document; `params` are checked against (and completed by) the kind's schema in parse.ts.
+ */
 export const stageEnvelopeSchema = z
   .object({
+    /** Stable id, unique within the chain; probes and results refer to it. */
     id: z
       .string()
       .regex(STAGE_ID_PATTERN, 'must be 1 to 64 letters, digits, "-", "_" or ".", starting with a letter or digit'),
     kind: z.string().min(1),
     params: z.record(z.unknown()).default({}),
+    /** Keep and plot this stage's output after a run. */
     probe: z.boolean().default(false),
+    /** Pass the input through unchanged (the stage stays in the document). */
     bypass: z.boolean().default(false),
   })
   .strict();
 
-/** The document fields other than the stages. */
-export const documentHeaderSchema = z
+/** One stage of a chain. */
+export type ChainStage = z.output<typeof stageEnvelopeSchema>;
+
+/**
+ * The outline of a chain document: version, name, description and stage envelopes. The full
+ * validation (unique ids, known kinds, each kind's parameters) is parseChainDocument.
+ */
+export const chainOutlineSchema = z
   .object({
-    version: z.unknown(),
+    version: z.literal(CHAIN_FORMAT_VERSION),
     name: z.string().max(200).default(''),
     description: z.string().max(10_000).optional(),
-    stages: z.array(z.unknown()).max(MAX_STAGES),
+    stages: z.array(stageEnvelopeSchema).max(MAX_STAGES),
   })
   .strict();
+
+/** A chain document (validated when it comes out of parseChainDocument). */
+export type ChainDocument = z.output<typeof chainOutlineSchema>;
+
+/** The document fields other than the stages (version and stages are checked one by one). */
+export const documentHeaderSchema = chainOutlineSchema.extend({
+  version: z.unknown(),
+  stages: z.array(z.unknown()).max(MAX_STAGES),
+});

@@ -1,5 +1,5 @@
 /** Chains: document schema and validation, propagation, canonical form and the runner. */
-export { CHAIN_FORMAT_VERSION, MAX_STAGES, STAGE_ID_PATTERN, stageEnvelopeSchema } from './document';
+export { CHAIN_FORMAT_VERSION, chainOutlineSchema, MAX_STAGES, STAGE_ID_PATTERN, stageEnvelopeSchema } from './document';
 export type { ChainDocument, ChainStage } from './document';
 export { ISSUE_CODES } from './issue-codes';
 export { describeZodIssue, fieldPath, formatFrequency, stageLabel } from './messages';

@@ -5,13 +5,14 @@
  * engine changes a default.
  */
 import { createHash } from 'node:crypto';
-import { canonicalChain, ISSUE_CODES, parseChainDocument, type ChainDocument } from '@/dsp/chain';
+import { canonicalChain, ISSUE_CODES, parseChainDocument } from '@/dsp/chain';
 import type { ChainIssue } from '@/dsp/types';
+import { storedChainDocumentSchema, type StoredChainDocument } from '@/contracts/chain';
 import { unprocessable, type ApiError } from '../api/errors';
 
 /** A document ready to store: its canonical JSON text and that text's SHA-256 (hex). */
 export interface StoredDocument {
-  document: ChainDocument;
+  document: StoredChainDocument;
   json: string;
   hash: string;
 }
@@ -38,16 +39,15 @@ export function invalidChain(issues: ChainIssue[], root = 'document'): ApiError 
   return unprocessable('invalid_chain', `${first.message}${more}`, issueField(first, root), facts);
 }
 
-/** Validates a chain document from a request body (422 `invalid_chain` naming the field) and prepares it for storage. */
+/**
+ * Validates a chain document from a request body (422 `invalid_chain` naming the field) and
+ * prepares it for storage: the one place a document becomes a StoredChainDocument. Read it back
+ * with readStoredChainDocument (src/contracts/chain.ts).
+ */
 export function prepareDocument(value: unknown, root = 'document'): StoredDocument {
   const parsed = parseChainDocument(value);
   if (!parsed.ok) throw invalidChain(parsed.issues, root);
   const canonical = canonicalChain(parsed.document);
   const json = JSON.stringify(canonical);
-  return { document: canonical as unknown as ChainDocument, json, hash: createHash('sha256').update(json).digest('hex') };
-}
-
-/** Reads a stored document back. */
-export function storedDocument(json: string): ChainDocument {
-  return JSON.parse(json) as ChainDocument;
+  return { document: storedChainDocumentSchema.parse(canonical), json, hash: createHash('sha256').update(json).digest('hex') };
 }

@@ -3,6 +3,7 @@
  * revision of the original, remembering where it came from.
  */
 import type { Knex } from 'knex';
+import { readStoredChainDocument } from '@/contracts/chain';
 import { createChain } from './create';
 import { getRevision } from './revisions';
 import type { ChainRevisionRow, ChainRow } from './rows';
@@ -32,7 +33,7 @@ export async function forkChain(db: Knex, source: ChainRow, request: ForkRequest
     name: request.name ?? forkName(source.name),
     description: source.description,
     visibility: 'private',
-    document: JSON.parse(original.document),
+    document: readStoredChainDocument(original.document),
     message: `Forked from "${source.name}" revision ${revisionNumber}`,
     forkedFrom: { chainId: source.id, revision: revisionNumber },
   });

@@ -2,7 +2,7 @@
 export { requireChain, revisionNumber } from './access';
 export { createChain, type NewChain } from './create';
 export { diffRevisions } from './diff';
-export { invalidChain, issueField, prepareDocument, storedDocument, type StoredDocument } from './document';
+export { invalidChain, issueField, prepareDocument, type StoredDocument } from './document';
 export { exportFileName, exportResponse } from './export';
 export { forkChain, forkName, MAX_CHAIN_NAME } from './fork';
 export { listChains, type ChainPage, type ChainQuery } from './list';

@@ -1,59 +1,18 @@
 /**
  * Shapes chains and revisions for API answers (never the rows), including what the viewer may do
- * with a chain so pages and islands can show or hide controls without a second request.
+ * with a chain so pages and islands can show or hide controls without a second request. The shapes
+ * are the chain contract's (src/contracts/chain.ts), which the islands read too.
  */
 import { can, type Actor } from '@/lib/permissions';
-import type { ChainDocument } from '@/dsp/chain';
-import { storedDocument } from './document';
-import { chainResource, type ChainWithOwner, type RevisionWithAuthor, type Visibility } from './rows';
-
-/** A user as chains show them. */
-export interface PersonRef {
-  id: string;
-  name: string;
-}
-
-/** Chain JSON. `latestRevision` counts from 1; times are ISO-8601 UTC. */
-export interface PresentedChain {
-  id: string;
-  name: string;
-  description: string;
-  owner: PersonRef;
-  visibility: Visibility;
-  latestRevision: number;
-  createdAt: string;
-  updatedAt: string;
-  forkedFrom: { chainId: string; revision: number } | null;
-  permissions: { update: boolean; delete: boolean; fork: boolean; run: boolean };
-}
-
-/** A revision in the history list (without its document). */
-export interface PresentedRevisionSummary {
-  chainId: string;
-  revision: number;
-  message: string;
-  author: PersonRef;
-  createdAt: string;
-  /** SHA-256 (hex) of the canonical chain JSON. */
-  hash: string;
-}
-
-/** A revision with its chain document. */
-export interface PresentedRevision extends PresentedRevisionSummary {
-  document: ChainDocument;
-}
-
-/** Chain JSON plus the latest revision, as `GET /api/chains/:id` answers. */
-export interface PresentedChainWithRevision extends PresentedChain {
-  revision: PresentedRevision;
-}
+import { readStoredChainDocument, type Chain, type RevisionSummary, type RevisionWithDocument } from '@/contracts/chain';
+import { chainResource, type ChainWithOwner, type RevisionWithAuthor } from './rows';
 
 function iso(value: string | Date): string {
   return new Date(value).toISOString();
 }
 
 /** The chain as `viewer` sees it. */
-export function presentChain(chain: ChainWithOwner, viewer: Actor | null): PresentedChain {
+export function presentChain(chain: ChainWithOwner, viewer: Actor | null): Chain {
   const resource = chainResource(chain);
   return {
     id: chain.id,
@@ -78,7 +37,7 @@ export function presentChain(chain: ChainWithOwner, viewer: Actor | null): Prese
 }
 
 /** A revision without its document. */
-export function presentRevisionSummary(revision: RevisionWithAuthor): PresentedRevisionSummary {
+export function presentRevisionSummary(revision: RevisionWithAuthor): RevisionSummary {
   return {
     chainId: revision.chain_id,
     revision: Number(revision.revision),
@@ -90,6 +49,6 @@ export function presentRevisionSummary(revision: RevisionWithAuthor): PresentedR
 }
 
 /** A revision with its document. */
-export function presentRevision(revision: RevisionWithAuthor): PresentedRevision {
-  return { ...presentRevisionSummary(revision), document: storedDocument(revision.document) };
+export function presentRevision(revision: RevisionWithAuthor): RevisionWithDocument {
+  return { ...presentRevisionSummary(revision), document: readStoredChainDocument(revision.document) };
 }

@@ -5,6 +5,7 @@
 import { randomUUID } from 'node:crypto';
 import type { Knex } from 'knex';
 import { notFound } from '../api/errors';
+import { readStoredChainDocument } from '@/contracts/chain';
 import { prepareDocument, type StoredDocument } from './document';
 import { findRevision, revisionsWithAuthor, type ChainRevisionRow, type RevisionWithAuthor } from './rows';
 
@@ -71,5 +72,5 @@ export async function getRevision(db: Knex, chainId: string, revision: number): 
 /** Makes a new revision whose document equals revision `revision`'s; the old one stays as it was. */
 export async function restoreRevision(db: Knex, chainId: string, authorId: string, revision: number, message?: string): Promise<RevisionWithAuthor> {
   const old = await getRevision(db, chainId, revision);
-  return addRevision(db, chainId, authorId, JSON.parse(old.document), message || `Restored revision ${revision}`);
+  return addRevision(db, chainId, authorId, readStoredChainDocument(old.document), message || `Restored revision ${revision}`);
 }

@@ -4,8 +4,9 @@
  */
 import type { Knex } from 'knex';
 import type { OwnedResource } from '@/lib/permissions';
+import type { Visibility } from '@/contracts/capture';
 
-export type Visibility = 'private' | 'team';
+export type { Visibility };
 
 export interface ChainRow {
   id: string;

@@ -9,7 +9,7 @@ import { randomUUID } from 'node:crypto';
 import type { Knex } from 'knex';
 import PQueue from 'p-queue';
 import { ENGINE_VERSION } from '@/dsp/version';
-import type { ChainDocument } from '@/dsp/chain';
+import { readStoredChainDocument } from '@/contracts/chain';
 import { getDb } from '../db';
 import { getObjectStore } from '../captures/store';
 import { findCapture } from '../captures/rows';
@@ -151,7 +151,7 @@ export class RunScheduler {
       await recordFailure(this.db, run, { message: `The ${what} before the run started.`, stageId: null, kind: 'input', sampleIndex: null }, 0);
       return;
     }
-    const document = JSON.parse(revision.document) as ChainDocument;
+    const document = readStoredChainDocument(revision.document);
     const chainHash = computationHash(document);
     const facts = { cacheKey: cacheKey(chainHash, capture.sha256, ENGINE_VERSION), chainHash, captureSha256: capture.sha256, engineVersion: ENGINE_VERSION };
     // An identical run may have finished while this one waited in the queue.

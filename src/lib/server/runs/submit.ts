@@ -9,6 +9,7 @@ import type { Knex } from 'knex';
 import { access, type Actor } from '@/lib/permissions';
 import { propagateChain, type ChainDocument } from '@/dsp/chain';
 import { streamFormatOf } from '@/contracts/capture';
+import { readStoredChainDocument } from '@/contracts/chain';
 import { ENGINE_VERSION } from '@/dsp/version';
 import { ApiError, conflict, forbidden, unprocessable } from '../api/errors';
 import { captureFormatOf, findCapture, type CaptureWithOwner } from '../captures/rows';
@@ -75,7 +76,7 @@ export async function submitRuns(db: Knex, user: Actor, request: RunRequest, ret
   const revisionNumber = request.revision ?? chain!.latest_revision;
   const revision = await findRevision(db, chain!.id, revisionNumber);
   if (!revision) throw missing(`revision ${revisionNumber} of this chain`, 'revision');
-  const document = JSON.parse(revision.document) as ChainDocument;
+  const document = readStoredChainDocument(revision.document);
   const captures = await loadCaptures(db, user, request);
 
   const chainHash = revisionComputationHash(revision.id, document);
