@@ -13,7 +13,7 @@ import { openCapture, type CaptureOptions } from './capture-source';
 import { InputError } from './errors';
 import { RunOutput } from './output-writer';
 import { ProgressReporter } from './progress';
-import { buildResults } from './results';
+import { buildResults } from '../dsp/chain/results';
 
 export interface RunCommandOptions extends CaptureOptions {
   chain: string;

@@ -52,6 +52,14 @@ export async function findCapture(db: Knex, id: string): Promise<CaptureWithOwne
   return (await captureQuery(db).where('captures.id', id).first()) as CaptureWithOwner | undefined;
 }
 
+/** Several captures with their owners' names in one query, by id (ids that match nothing are absent). */
+export async function findCaptures(db: Knex, ids: string[]): Promise<Map<string, CaptureWithOwner>> {
+  const wellFormed = [...new Set(ids)].filter((id) => /^[0-9a-f-]{36}$/i.test(id));
+  if (wellFormed.length === 0) return new Map();
+  const rows = (await captureQuery(db).whereIn('captures.id', wellFormed)) as CaptureWithOwner[];
+  return new Map(rows.map((row) => [row.id, row]));
+}
+
 /** Parses a JSON text column, falling back to `fallback` if it is not valid JSON. */
 export function parseJsonColumn<T>(text: string | null, fallback: T): T {
   if (text === null) return fallback;
