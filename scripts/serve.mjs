@@ -48,8 +48,40 @@ const host = process.env.HOST ?? 'localhost';
 const port = Number(process.env.PORT ?? 4321);
 server.listen(port, host, () => {
   console.log(`Quadrille server listening on ${tls ? 'https' : 'http'}://${host}:${port}`);
+  startUp();
 });
 
-// Like the adapter's server: a signal ends the process at once (interrupted runs are taken up
-// again at the next start, see src/lib/server/runs).
-for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => process.exit(0));
+/**
+ * The app prepares itself (migrations, then the run scheduler) before it answers its first
+ * request; asking it once now means queued runs start with the server, not with the first visitor.
+ */
+function startUp() {
+  const address = server.address();
+  const client = tls ? https : http;
+  const request = client.get(
+    { host: typeof address === 'object' && address ? address.address : host, port, path: '/api/health', rejectUnauthorized: false },
+    (response) => {
+      response.resume();
+      if (response.statusCode !== 200) console.error(`Start-up check answered ${response.statusCode}`);
+    },
+  );
+  request.on('error', (error) => console.error('Start-up check failed:', error.message));
+}
+
+// A signal stops new connections, lets executing runs finish within QUADRILLE_RUN_SHUTDOWN_GRACE_MS
+// (then puts them back in the queue) and ends the process. A second signal ends it at once.
+let stopping = false;
+async function shutDown() {
+  if (stopping) process.exit(1);
+  stopping = true;
+  server.close();
+  server.closeIdleConnections?.();
+  const hook = globalThis[Symbol.for('quadrille.shutdown')];
+  try {
+    if (typeof hook === 'function') await hook();
+  } catch (error) {
+    console.error('Shutdown did not finish cleanly:', error);
+  }
+  process.exit(0);
+}
+for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => void shutDown());

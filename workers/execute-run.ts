@@ -1,16 +1,16 @@
 /**
  * One run, start to end, without threads or database: stream the capture's bytes from the object
- * store, decode them, run the chain, store the output capture under the job's fresh key and build
- * the results in the command line's results.json shape. The worker entry wraps this; tests can call
- * it directly.
+ * store, decode them, run the chain, store the output capture under the job's fresh key, build
+ * the results (the engine's results.json shape) and cut them into a summary and per-probe previews.
+ * The worker entry wraps this; tests can call it directly.
  */
 import type { Readable } from 'node:stream';
-import { ChainRunError, isAbortError, runChain } from '@/dsp/chain';
+import { buildResults, ChainRunError, finiteJsonNumbers, isAbortError, runChain } from '@/dsp/chain';
 import { FormatError, SampleDecoder, parseDatatype } from '@/dsp/formats';
 import { streamFormatOf } from '@/contracts/capture';
 import { ENGINE_VERSION } from '@/dsp/version';
-import { buildResults } from '@/cli/results';
 import { ObjectNotFoundError, type ObjectStore } from '@/lib/server/storage';
+import { probeDataEntries, summarizeResults } from '@/lib/server/runs/probe-data';
 import type { RunFailure, RunJob, WorkerMessage, WorkerOutcome } from '@/lib/server/runs/protocol';
 import { OutputSink, outputDatatype } from './output-sink';
 
@@ -18,11 +18,6 @@ export interface ExecuteOptions {
   signal?: AbortSignal;
   /** Progress, at most once per job.progressIntervalMs (and whenever the flushing stage changes). */
   onProgress?(message: Extract<WorkerMessage, { type: 'progress' }>): void;
-}
-
-/** JSON has no NaN or Infinity: write them as null, as the command line does. */
-function finiteNumbers(_key: string, value: unknown): unknown {
-  return typeof value === 'number' && !Number.isFinite(value) ? null : value;
 }
 
 async function* decodedBlocks(stream: Readable, decoder: SampleDecoder): AsyncGenerator<Float32Array> {
@@ -97,7 +92,10 @@ export async function executeRun(job: RunJob, store: ObjectStore, options: Execu
     });
     return {
       type: 'succeeded',
-      resultsJson: JSON.stringify(results, finiteNumbers),
+      resultsJson: JSON.stringify(results, finiteJsonNumbers),
+      // Cut up here, off the web thread: the server files these as they are.
+      summaryJson: JSON.stringify(summarizeResults(results), finiteJsonNumbers),
+      probeData: probeDataEntries(results),
       output: { key: job.outputKey, bytes: stored.bytes, samples: stored.samples, meta: stored.meta },
       seconds: seconds(),
     };

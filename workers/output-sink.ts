@@ -78,7 +78,16 @@ export class OutputSink {
   /** Stops the put (nothing is kept under the key) and removes anything that was stored. */
   async abort(reason: unknown): Promise<void> {
     this.stream.destroy(reason instanceof Error ? reason : new Error(String(reason)));
-    await this.putting.catch(() => undefined);
-    await this.store.delete(this.key).catch(() => undefined);
+    // The put fails because its stream was destroyed just above: that is the point, not news.
+    await this.putting.then(
+      () => undefined,
+      () => undefined,
+    );
+    try {
+      await this.store.delete(this.key);
+    } catch (error) {
+      // The scheduler deletes the key again once the worker has answered; say why it may remain.
+      console.error(`run worker: could not delete the partial output object ${this.key}:`, error);
+    }
   }
 }

@@ -13,7 +13,7 @@ import { openCapture, type CaptureOptions } from './capture-source';
 import { InputError } from './errors';
 import { RunOutput } from './output-writer';
 import { ProgressReporter } from './progress';
-import { buildResults } from './results';
+import { buildResults } from '../dsp/chain/results';
 import { readSetting } from '../lib/config';
 
 export interface RunCommandOptions extends CaptureOptions {

@@ -6,3 +6,5 @@
 export * from './capture';
 export * from './chain';
 export * from './errors';
+export * from './run-results';
+export * from './run';

@@ -1,7 +1,7 @@
 /**
- * What a finished run gives back: results in the command line's results.json shape (checked
- * against the CLI itself on the same chain and capture), exports that parse back (JSON, CSV,
- * SigMF pair), plot data reduced to the plot's width, comparisons, and the live event stream.
+ * What a finished run gives back: a summary whose figures match the synthesised tone, exports that
+ * parse back (results.json in the command line's shape, CSV, SigMF pair), plot data reduced to the
+ * plot's width, comparisons, and the live event stream.
  */
 import { createHash } from 'node:crypto';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -52,18 +52,39 @@ async function download(client: Client, path: string): Promise<{ status: number;
 }
 
 describe('results', () => {
-  it('have the same shape and probe values as the command line on the same chain and capture', async () => {
+  it('summarise the run with figures known from the synthesised tone', async () => {
+    const summary = run.summary;
+    expect(run.results).toBeUndefined();
+    // 131 072 complex samples at 4 Msps in; decimated by 8: 16 384 samples at 500 ksps out (quickChain).
+    expect(summary.input).toMatchObject({ path: `/api/captures/${captureId}`, datatype: 'cf32_le', layout: 'complex', sampleRate: 4e6, samples: 131_072 });
+    expect(summary.input.durationSeconds).toBeCloseTo(131_072 / 4e6, 12);
+    expect(summary.output).toMatchObject({ datatype: 'cf32_le', layout: 'complex', sampleRate: 500_000, samples: 16_384 });
+    // A probed stage without a measuring kind keeps a spectrum, a trace and (complex) a constellation.
+    expect(summary.testPoints.map((p: any) => [p.stageId, p.plots])).toEqual([
+      ['dec', ['spectrum', 'trace', 'constellation']],
+      ['psd', ['spectrum']],
+      ['meas', []],
+    ]);
+    // The 520 kHz tone mixed by -500 kHz sits at +20 kHz; amplitude 0.5 is a power of 0.25, i.e.
+    // 10 log10(0.25) = -6.02 dBFS (0 dBFS is a full-scale complex tone, src/dsp/spectral/levels.ts).
+    const psd = summary.testPoints.find((p: any) => p.stageId === 'psd').spectrum;
+    expect(Math.abs(psd.peak.frequency - 20_000)).toBeLessThan(2 * psd.resolutionBandwidth);
+    expect(psd.bins).toBe(1024);
+    const readouts = Object.fromEntries(summary.testPoints.find((p: any) => p.stageId === 'meas').readouts.map((r: any) => [r.name, r]));
+    expect(Math.abs(readouts['Tone frequency'].value - 20_000)).toBeLessThan(100);
+    expect(readouts['Tone level']).toMatchObject({ unit: 'dBFS' });
+    expect(readouts['Tone level'].value).toBeCloseTo(-6.02, 0);
+  });
+
+  it('export results.json in the command line\'s shape, and the same output samples', async () => {
     writeSigmf(join(work, 'beacon'), tone, 4e6);
     writeFileSync(join(work, 'chain.json'), JSON.stringify(quickChain(200_000, true)));
     const cli = await quadrille('run', '--chain', join(work, 'chain.json'), '--input', join(work, 'beacon.sigmf-meta'), '--out', join(work, 'out'), '--quiet');
     expect(cli.code, cli.stderr).toBe(0);
     const expected = JSON.parse(readFileSync(join(work, 'out', 'results.json'), 'utf8'));
-    expect(shape(run.results)).toEqual(shape(expected));
-    expect(run.results.probes).toEqual(expected.probes);
-    expect(run.results.output).toEqual(expected.output);
-    expect(run.results.input).toMatchObject({ ...expected.input, path: `/api/captures/${captureId}` });
-    expect(run.results.chain.stages).toEqual(expected.chain.stages);
-    // The output capture is byte for byte the command line's.
+    const exported = JSON.parse((await download(engineer, `/api/runs/${run.id}/export?format=json`)).bytes.toString('utf8'));
+    expect(shape(exported)).toEqual(shape(expected));
+    expect(exported.input.path).toBe(`/api/captures/${captureId}`);
     const data = await download(engineer, `/api/runs/${run.id}/export?format=sigmf-data`);
     expect(data.bytes.equals(readFileSync(join(work, 'out', 'output.sigmf-data')))).toBe(true);
   }, 180_000);
@@ -72,22 +93,26 @@ describe('results', () => {
     const json = await download(engineer, `/api/runs/${run.id}/export?format=json`);
     expect(json.status).toBe(200);
     expect(json.headers.get('content-disposition')).toMatch(/attachment; filename="run-[0-9a-f]{8}-results\.json"/);
-    expect(JSON.parse(json.bytes.toString('utf8'))).toEqual(run.results);
+    const results = JSON.parse(json.bytes.toString('utf8'));
+    expect(results.output).toEqual(expect.objectContaining(run.summary.output));
+    expect(results.probes.map((p: any) => p.stageId)).toEqual(['dec', 'psd', 'meas']);
 
-    const psd = run.results.probes.find((probe: any) => probe.stageId === 'psd').spectrum;
+    const psd = results.probes.find((probe: any) => probe.stageId === 'psd').spectrum;
     const spectrum = await download(engineer, `/api/runs/${run.id}/export?format=csv-spectrum&probe=psd`);
     expect(spectrum.headers.get('content-type')).toMatch(/^text\/csv/);
     const lines = spectrum.bytes.toString('utf8').trimEnd().split('\r\n');
-    expect(lines[0]).toBe(`frequency_hz,level_${psd.unit.replace('/', '_per_')}`);
-    expect(lines).toHaveLength(psd.frequencies.length + 1);
+    expect(lines[0]).toBe('frequency_hz,level_dBFS_per_Hz');
+    expect(lines).toHaveLength(1024 + 1);
     const rows = lines.slice(1).map((line) => line.split(',').map(Number));
     expect(rows.map((row) => row[0])).toEqual(psd.frequencies);
     expect(rows.map((row) => row[1])).toEqual(psd.levels);
+    // Bins 500 ksps / 1024 apart, from -250 kHz (a two-sided complex spectrum).
+    expect(rows[1]![0]! - rows[0]![0]!).toBeCloseTo(500_000 / 1024, 6);
     expect((await engineer.get(`/api/runs/${run.id}/export?format=csv-spectrum&probe=meas`)).body.error).toMatchObject({ code: 'no_spectrum', field: 'probe' });
 
     const readouts = (await download(engineer, `/api/runs/${run.id}/export?format=csv-readouts`)).bytes.toString('utf8').trimEnd().split('\r\n');
     expect(readouts[0]).toBe('probe,name,value,unit');
-    const expected = run.results.probes.flatMap((probe: any) => (probe.readouts ?? []).map((r: any) => [probe.stageId, r.name, r.value, r.unit]));
+    const expected = results.probes.flatMap((probe: any) => (probe.readouts ?? []).map((r: any) => [probe.stageId, r.name, r.value, r.unit]));
     expect(expected.length).toBeGreaterThan(3);
     const parsed = readouts.slice(1).map((line) => {
       const [probe, name, value, unit] = line.split(',');
@@ -99,7 +124,8 @@ describe('results', () => {
     const parsedMeta = parseSigmfMeta(meta.bytes.toString('utf8'));
     expect(parsedMeta.global).toMatchObject({ datatype: 'cf32_le', sampleRate: 500_000, version: '1.2.0' });
     const data = await download(engineer, `/api/runs/${run.id}/export?format=sigmf-data`);
-    expect(data.headers.get('content-length')).toBe(String(run.results.output.samples * 8));
+    // cf32_le: 8 bytes per complex sample.
+    expect(data.headers.get('content-length')).toBe(String(16_384 * 8));
     // core:sha512 is the hash of the data file (SigMF v1.2 global core:sha512).
     expect(parsedMeta.global.sha512).toBe(createHash('sha512').update(data.bytes).digest('hex'));
 
@@ -108,30 +134,42 @@ describe('results', () => {
     expect(bad.body.error.field).toBe('format');
   });
 
-  it('plot data never has more points than the width', async () => {
-    const full = run.results.probes.find((probe: any) => probe.stageId === 'psd').spectrum;
+  it('plot data never has more points than the width, and every bin is there on request', async () => {
+    const full = await engineer.get(`/api/runs/${run.id}/plot?probe=psd&kind=spectrum&full=1`);
+    expect(full.status, full.text).toBe(200);
+    expect(full.body.frequencies).toHaveLength(1024);
     const spectrum = await engineer.get(`/api/runs/${run.id}/plot?probe=psd&kind=spectrum&width=100`);
     expect(spectrum.status).toBe(200);
     expect(spectrum.body.frequencies.length).toBeLessThanOrEqual(100);
     expect(spectrum.body.levels).toHaveLength(spectrum.body.frequencies.length);
-    // Max per column keeps the peak bin at its own frequency.
-    const top = Math.max(...full.levels);
+    expect(spectrum.body.bins).toBe(1024);
+    // Max per column keeps the peak bin at its own frequency, the +20 kHz tone.
+    const top = Math.max(...full.body.levels);
     expect(Math.max(...spectrum.body.levels)).toBe(top);
-    expect(spectrum.body.frequencies[spectrum.body.levels.indexOf(top)]).toBe(full.frequencies[full.levels.indexOf(top)]);
+    const topFrequency = spectrum.body.frequencies[spectrum.body.levels.indexOf(top)];
+    expect(topFrequency).toBe(full.body.frequencies[full.body.levels.indexOf(top)]);
+    expect(Math.abs(topFrequency - 20_000)).toBeLessThan(1000);
 
     const trace = await engineer.get(`/api/runs/${run.id}/plot?probe=dec&kind=trace&width=50`);
     expect(trace.status, trace.text).toBe(200);
     expect(trace.body.channels).toHaveLength(2);
     for (const channel of trace.body.channels) {
       expect(channel.min.length).toBeLessThanOrEqual(50);
-      expect(Math.min(...channel.min)).toBeGreaterThanOrEqual(-1);
+      // A tone of amplitude 0.5 plus 1e-3 of dither swings I and Q through about ±0.5.
+      expect(Math.min(...channel.min)).toBeCloseTo(-0.5, 1);
+      expect(Math.max(...channel.max)).toBeCloseTo(0.5, 1);
     }
-    const fullTrace = run.results.probes.find((probe: any) => probe.stageId === 'dec').trace;
-    expect(Math.max(...trace.body.channels[0].max)).toBe(Math.max(...fullTrace.channels[0].max));
     const constellation = await engineer.get(`/api/runs/${run.id}/plot?probe=dec&kind=constellation&width=64`);
     expect(constellation.body.points.length / 2).toBeLessThanOrEqual(64);
-    expect((await engineer.get(`/api/runs/${run.id}/plot?probe=nope&kind=spectrum&width=100`)).status).toBe(404);
+    // The tone's points lie on the circle of radius 0.5 (the median ignores the filter's first samples).
+    const radii: number[] = [];
+    for (let k = 0; k < constellation.body.points.length; k += 2) radii.push(Math.hypot(constellation.body.points[k], constellation.body.points[k + 1]));
+    radii.sort((a, b) => a - b);
+    expect(radii[radii.length >> 1]).toBeCloseTo(0.5, 1);
+    expect((await engineer.get(`/api/runs/${run.id}/plot?probe=nope&kind=spectrum&width=100`)).body.error).toMatchObject({ code: 'not_found', field: 'probe' });
+    expect((await engineer.get(`/api/runs/${run.id}/plot?probe=psd&kind=trace&width=100`)).status).toBe(404);
     expect((await engineer.get(`/api/runs/${run.id}/plot?probe=psd&kind=spectrum&width=1`)).status).toBe(400);
+    expect((await engineer.get(`/api/runs/${run.id}/plot?probe=dec&kind=trace&full=1`)).body.error).toMatchObject({ field: 'full' });
   });
 
   it('compare puts spectra side by side and readouts with their differences', async () => {

@@ -27,19 +27,24 @@ export interface RunsServer {
   output(): string;
   /** Kills the process (SIGKILL: no chance to clean up) and waits for it to exit. */
   kill(): Promise<void>;
-  /** Stops the process; with `keepData` the folder and database handle stay for a restart. */
+  /** Stops the process (SIGTERM: a graceful shutdown); with `keepData` the folder and database handle stay for a restart. */
   stop(keepData?: boolean): Promise<void>;
 }
 
-/** Starts the built server on `dataDir` (a fresh folder, migrated and seeded, when absent). */
-export async function startRunsServer(options: { dataDir?: string; env?: Record<string, string> } = {}): Promise<RunsServer> {
+/**
+ * Starts the built server on `dataDir` (a fresh folder, migrated and seeded, when absent). With
+ * `untouched` (an existing folder only) it waits for the server to say it listens and sends it no
+ * request, so a test can see what the server does by itself.
+ */
+export async function startRunsServer(options: { dataDir?: string; env?: Record<string, string>; untouched?: boolean } = {}): Promise<RunsServer> {
   if (!existsSync(entry)) throw new Error('dist/server/entry.mjs is missing: run `npm run build` first (npm test does).');
   if (!existsSync(join(distDir, 'workers/run-worker.mjs'))) throw new Error('dist/workers/run-worker.mjs is missing: run `npm run build` first.');
   const dataDir = options.dataDir ?? mkdtempSync(join(tmpdir(), 'quadrille-runs-'));
   const db = openDb(dataDir);
   const port = await freePort();
   const child = spawn(process.execPath, [serveScript, entry], {
-    env: { ...process.env, QUADRILLE_RUN_CONCURRENCY: '1', ...options.env, QUADRILLE_DATA_DIR: dataDir, HOST: '127.0.0.1', PORT: String(port), NODE_ENV: 'test' },
+    // A stopped test server puts executing runs back at once unless a test asks for a grace period.
+    env: { ...process.env, QUADRILLE_RUN_CONCURRENCY: '1', QUADRILLE_RUN_SHUTDOWN_GRACE_MS: '0', ...options.env, QUADRILLE_DATA_DIR: dataDir, HOST: '127.0.0.1', PORT: String(port), NODE_ENV: 'test' },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
   let output = '';
@@ -55,10 +60,14 @@ export async function startRunsServer(options: { dataDir?: string; env?: Record<
   };
   for (;;) {
     if (child.exitCode !== null) await giveUp(`server exited with code ${child.exitCode}`);
-    try {
-      if ((await fetch(`${baseUrl}/api/health`)).ok) break;
-    } catch {
-      // Not listening yet.
+    if (options.untouched && options.dataDir) {
+      if (/listening on/.test(output)) break;
+    } else {
+      try {
+        if ((await fetch(`${baseUrl}/api/health`)).ok) break;
+      } catch {
+        // Not listening yet.
+      }
     }
     if (Date.now() > deadline) await giveUp('server did not answer within 30 s');
     await sleep(100);

@@ -9,20 +9,18 @@ import { usePlotData, usePlotWidth } from './hooks';
 import { PlotCard, plotConfig } from './PlotCard';
 import { constellationFigure, frequencyAxis, spectrogramFigure, traceFigure } from './run-figures';
 import { SpectrumCard } from './SpectrumCard';
-import type { ResultProbe } from './types';
+import type { TestPoint } from './types';
 
 const HEIGHT = 300;
 
-/** True when the probe has anything to plot (not only readouts). */
-export function hasPlots(probe: ResultProbe): boolean {
-  return Boolean(probe.spectrum || probe.spectrogram || probe.trace || (probe.constellation && probe.constellation.length > 0));
+/** True when the test point has anything to plot (not only readouts). */
+export function hasPlots(probe: TestPoint): boolean {
+  return probe.plots.length > 0;
 }
 
-export function ProbePlots({ runId, probe, fileBase }: { runId: string; probe: ResultProbe; fileBase: string }) {
+export function ProbePlots({ runId, probe, fileBase }: { runId: string; probe: TestPoint; fileBase: string }) {
   const spectrum = probe.spectrum;
-  const others = [probe.spectrogram && 'spectrogram', probe.trace && 'trace', probe.constellation && probe.constellation.length > 0 && 'constellation'].filter(
-    Boolean,
-  ) as OtherKind[];
+  const others = probe.plots.filter((kind): kind is OtherKind => kind !== 'spectrum');
   return (
     <div className="space-y-4" data-probe={probe.stageId}>
       {spectrum && <SpectrumCard runId={runId} probe={{ ...probe, spectrum }} fileBase={fileBase} />}
@@ -39,13 +37,13 @@ export function ProbePlots({ runId, probe, fileBase }: { runId: string; probe: R
 
 type OtherKind = 'spectrogram' | 'trace' | 'constellation';
 
-const TITLES: Record<OtherKind, (probe: ResultProbe) => string> = {
+const TITLES: Record<OtherKind, (probe: TestPoint) => string> = {
   spectrogram: (p) => `Spectrogram at ${p.stageId}`,
   trace: (p) => (p.format.sampleType === 'real' ? `Signal against time at ${p.stageId}` : `I and Q against time at ${p.stageId}`),
   constellation: (p) => `Constellation at ${p.stageId}`,
 };
 
-function OtherPlotCard({ runId, probe, kind, fileBase }: { runId: string; probe: ResultProbe; kind: OtherKind; fileBase: string }) {
+function OtherPlotCard({ runId, probe, kind, fileBase }: { runId: string; probe: TestPoint; kind: OtherKind; fileBase: string }) {
   const theme = usePlotTheme();
   const [box, width] = usePlotWidth<HTMLDivElement>();
   // A scatter of points covers an area: its pixel budget is the plot's area, and eight points per

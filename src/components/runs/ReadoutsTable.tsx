@@ -1,7 +1,7 @@
 import { useMemo } from 'react';
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from '@tanstack/react-table';
 import { ReadoutValue } from './ReadoutValue';
-import type { ResultProbe } from './types';
+import type { TestPoint } from './types';
 
 /** One measurement of one probe. */
 export interface ReadoutRow {
@@ -11,9 +11,9 @@ export interface ReadoutRow {
   unit: string;
 }
 
-/** Every readout of every probe, in chain order. */
-export function readoutRows(probes: ResultProbe[]): ReadoutRow[] {
-  return probes.flatMap((probe) => (probe.readouts ?? []).map((r) => ({ probe: probe.stageId, name: r.name, value: r.value, unit: r.unit })));
+/** Every readout of every test point, in chain order. */
+export function readoutRows(testPoints: TestPoint[]): ReadoutRow[] {
+  return testPoints.flatMap((point) => point.readouts.map((r) => ({ probe: point.stageId, name: r.name, value: r.value, unit: r.unit })));
 }
 
 const column = createColumnHelper<ReadoutRow>();
@@ -37,8 +37,8 @@ const columns = [
 ];
 
 /** The readouts of a run, one row per measurement, values with their units in the monospace face. */
-export function ReadoutsTable({ probes }: { probes: ResultProbe[] }) {
-  const data = useMemo(() => readoutRows(probes), [probes]);
+export function ReadoutsTable({ testPoints }: { testPoints: TestPoint[] }) {
+  const data = useMemo(() => readoutRows(testPoints), [testPoints]);
   const table = useReactTable({ data, columns, getCoreRowModel: getCoreRowModel() });
   if (data.length === 0) return <p className="text-sm text-muted">This chain marks no measuring stage as a probe, so the run has no readouts.</p>;
   return (

@@ -11,7 +11,7 @@ import { RunStatusPanel } from './RunStatusPanel';
 import { isActive, type Run } from './types';
 
 export interface RunDetailProps {
-  /** The run as the server rendered the page (without results), shown until the first answer. */
+  /** The run as the server rendered the page (with its summary once succeeded). */
   initialRun: Run;
 }
 
@@ -38,7 +38,9 @@ function RunDetailBody({ initialRun }: RunDetailProps) {
   const query = useQuery({
     queryKey: ['run', id],
     queryFn: () => fetchRun(id),
-    placeholderData: initialRun,
+    initialData: initialRun,
+    // A finished run does not change: the rendered one is as good as a fresh answer.
+    staleTime: (q) => (q.state.data && isActive(q.state.data.status) ? 0 : Infinity),
     refetchInterval: (q) => (q.state.data && isActive(q.state.data.status) ? ACTIVE_REFRESH_MS : false),
   });
   const run = query.data ?? initialRun;
@@ -67,9 +69,9 @@ function RunDetailBody({ initialRun }: RunDetailProps) {
     window.location.assign(`/runs/${result.data.runs[0].id}`);
   }
 
-  const results = run.status === 'succeeded' ? run.results : undefined;
+  const summary = run.status === 'succeeded' ? run.summary : undefined;
   const fileBase = `run-${shortId(id)}`;
-  const plotted = results?.probes.filter(hasPlots) ?? [];
+  const plotted = summary?.testPoints.filter(hasPlots) ?? [];
 
   return (
     <div className="space-y-6" data-testid="run-detail">
@@ -79,13 +81,13 @@ function RunDetailBody({ initialRun }: RunDetailProps) {
           The run could not be reloaded: {(query.error as Error).message}
         </p>
       )}
-      {run.status === 'succeeded' && !results && <p className="text-sm text-muted">Loading the results…</p>}
+      {run.status === 'succeeded' && !summary && <p className="text-sm text-muted">Loading the results…</p>}
       {isActive(run.status) && (
         <p className="rounded-lg border border-dashed border-line bg-panel px-5 py-8 text-center text-sm text-muted">
           The plots of each probe, the readouts and the exports appear here when the run has finished.
         </p>
       )}
-      {results && (
+      {summary && (
         <div className="grid items-start gap-6 2xl:grid-cols-[minmax(0,1fr)_30rem]">
           <div className="min-w-0 space-y-6">
             {plotted.length === 0 && (
@@ -110,9 +112,9 @@ function RunDetailBody({ initialRun }: RunDetailProps) {
               <h2 id="readouts-title" className="mb-2 font-semibold">
                 Readouts
               </h2>
-              <ReadoutsTable probes={results.probes} />
+              <ReadoutsTable testPoints={summary.testPoints} />
             </section>
-            <RunExports runId={id} results={results} />
+            <RunExports runId={id} summary={summary} />
           </div>
         </div>
       )}

@@ -1,14 +1,14 @@
 import { buttonSmall } from '../ui';
 import { exportUrl } from './api';
-import type { RunResults } from './types';
+import type { RunSummary } from './types';
 
 /**
  * Downloads of a succeeded run: results.json, readouts and each spectrum as CSV, the output
  * capture as a SigMF pair (metadata and data files). PNGs are on each plot.
  */
-export function RunExports({ runId, results }: { runId: string; results: RunResults }) {
-  const spectra = results.probes.filter((p) => p.spectrum);
-  const hasReadouts = results.probes.some((p) => (p.readouts ?? []).length > 0);
+export function RunExports({ runId, summary }: { runId: string; summary: RunSummary }) {
+  const spectra = summary.testPoints.filter((p) => p.spectrum);
+  const hasReadouts = summary.testPoints.some((p) => p.readouts.length > 0);
   const link = (href: string, text: string, title: string) => (
     <a className={buttonSmall} href={href} download title={title}>
       {text}
@@ -50,9 +50,9 @@ export function RunExports({ runId, results }: { runId: string; results: RunResu
         <dd className="flex flex-wrap items-center gap-1.5">
           {link(exportUrl(runId, 'sigmf-meta'), '.sigmf-meta', 'SigMF metadata of the chain’s output')}
           {link(exportUrl(runId, 'sigmf-data'), '.sigmf-data', 'The output samples (SigMF data file)')}
-          {results.output && (
+          {summary.output && (
             <span className="font-mono text-xs text-muted">
-              {results.output.datatype}, {results.output.samples.toLocaleString('en')} samples
+              {summary.output.datatype}, {summary.output.samples.toLocaleString('en')} samples
             </span>
           )}
         </dd>

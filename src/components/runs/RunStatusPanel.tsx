@@ -18,7 +18,7 @@ export interface RunStatusPanelProps {
 /** Where a run stands: status, live progress, the error of a failed run, timings; cancel and retry. */
 export function RunStatusPanel({ run, busy, onCancel, onRetry, actionError }: RunStatusPanelProps) {
   const now = useClock(run.status === 'running');
-  const results = run.results;
+  const results = run.summary;
   return (
     <section
       aria-label="Status"

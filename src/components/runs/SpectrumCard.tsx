@@ -1,14 +1,16 @@
 import { useCallback, useMemo, useState } from 'react';
+import { useQueryClient } from '@tanstack/react-query';
 import type { Config, PlotMouseEvent, PlotRelayoutEvent } from 'plotly.js-dist-min';
 import Plot, { PlotPlaceholder } from '../plots/Plot';
 import { usePlotTheme } from '../plots/plot-theme';
 import { formatQuantity } from '@/lib/units';
+import { fetchSpectrumBins } from './api';
 import { usePlotData, usePlotWidth } from './hooks';
 import { MarkerPanel } from './MarkerPanel';
-import { markerAt, markerAtBin, medianLevel, type Marker, type MarkerName } from './markers';
+import { markerAt, markerAtBin, type Marker, type MarkerName, type MarkerSpectrum } from './markers';
 import { PlotCard, plotConfig } from './PlotCard';
 import { fromAxis, frequencyAxis, MARKER_SHAPES, spectrumFigure } from './run-figures';
-import type { ResultProbe } from './types';
+import type { TestPoint } from './types';
 
 const HEIGHT = 340;
 // Marker lines are the only shapes, so letting shapes move lets the markers be dragged.
@@ -16,15 +18,15 @@ const spectrumConfig: Partial<Config> = { ...plotConfig, edits: { shapePosition:
 
 export interface SpectrumCardProps {
   runId: string;
-  /** The probe with its full-resolution spectrum (from the run's results). */
-  probe: ResultProbe & { spectrum: NonNullable<ResultProbe['spectrum']> };
+  /** The test point with its spectrum's figures (from the run's summary). */
+  probe: TestPoint & { spectrum: NonNullable<TestPoint['spectrum']> };
   fileBase: string;
 }
 
 /**
  * A probe's spectrum: the reduced trace from the plot endpoint, its peak, the noise floor (median
- * of the full spectrum) and markers A and B placed by clicking or dragging, read off the
- * full-resolution bins.
+ * of the full spectrum, from the summary) and markers A and B placed by clicking or dragging, read
+ * off the full-resolution bins, which are fetched when the first marker is placed.
  */
 export function SpectrumCard({ runId, probe, fileBase }: SpectrumCardProps) {
   const theme = usePlotTheme();
@@ -34,11 +36,25 @@ export function SpectrumCard({ runId, probe, fileBase }: SpectrumCardProps) {
   const [markers, setMarkers] = useState<Partial<Record<MarkerName, Marker>>>({});
   const [next, setNext] = useState<MarkerName>('A');
   const full = probe.spectrum;
-  const noiseFloor = useMemo(() => medianLevel(full.levels), [full.levels]);
-  const axis = useMemo(
-    () => frequencyAxis(probe.format, full.frequencies[0] ?? 0, full.frequencies[full.frequencies.length - 1] ?? 1),
-    [probe.format, full.frequencies],
+  const noiseFloor = full.noiseFloor;
+  const queryClient = useQueryClient();
+  const [bins, setBins] = useState<MarkerSpectrum | null>(null);
+  // Every bin is only needed once a marker is placed; later calls answer from the query cache.
+  const loadBins = useCallback(async (): Promise<MarkerSpectrum> => {
+    const loaded = await queryClient.fetchQuery({
+      queryKey: ['spectrum-bins', runId, probe.stageId],
+      queryFn: () => fetchSpectrumBins(runId, probe.stageId),
+      staleTime: Infinity,
+    });
+    setBins(loaded);
+    return loaded;
+  }, [queryClient, runId, probe.stageId]);
+  const withBins = useCallback(
+    (use: (spectrum: MarkerSpectrum) => void) => void loadBins().then(use, (error: unknown) => console.error('The spectrum bins could not be loaded:', error)),
+    [loadBins],
   );
+  const span = bins?.frequencies ?? plot.data?.frequencies;
+  const axis = useMemo(() => frequencyAxis(probe.format, span?.[0] ?? 0, span?.[span.length - 1] ?? 1), [probe.format, span]);
   const figure = useMemo(
     () => (plot.data ? spectrumFigure({ data: plot.data, axis, noiseFloor, markers, theme }) : null),
     [plot.data, axis, noiseFloor, markers, theme],
@@ -59,9 +75,10 @@ export function SpectrumCard({ runId, probe, fileBase }: SpectrumCardProps) {
       // point is a bin of the full spectrum.
       const frequency = plot.data.frequencies[point.pointIndex];
       if (frequency === undefined) return;
-      place(next, markerAt(full, frequency));
+      const name = next;
+      withBins((spectrum) => place(name, markerAt(spectrum, frequency)));
     },
-    [plot.data, full, next, place],
+    [plot.data, next, place, withBins],
   );
 
   const onRelayout = useCallback(
@@ -70,10 +87,10 @@ export function SpectrumCard({ runId, probe, fileBase }: SpectrumCardProps) {
       MARKER_SHAPES.forEach((name, index) => {
         const x = changes[`shapes[${index}].x0`];
         // A dragged marker moves; it does not change which marker the next click places.
-        if (typeof x === 'number') setMarkers((m) => ({ ...m, [name]: markerAt(full, fromAxis(axis, x)) }));
+        if (typeof x === 'number') withBins((spectrum) => setMarkers((m) => ({ ...m, [name]: markerAt(spectrum, fromAxis(axis, x)) })));
       });
     },
-    [full, axis],
+    [withBins, axis],
   );
 
   const peak = full.peak;
@@ -87,7 +104,7 @@ export function SpectrumCard({ runId, probe, fileBase }: SpectrumCardProps) {
       {plot.data && (
         <>
           {' '}
-          · {plot.data.frequencies.length.toLocaleString('en')} of {full.frequencies.length.toLocaleString('en')} bins drawn
+          · {plot.data.frequencies.length.toLocaleString('en')} of {full.bins.toLocaleString('en')} bins drawn
         </>
       )}
     </>
@@ -122,14 +139,14 @@ export function SpectrumCard({ runId, probe, fileBase }: SpectrumCardProps) {
         next={next}
         unit={full.unit}
         axis={axis}
-        binSpacing={full.frequencies.length > 1 ? full.frequencies[1]! - full.frequencies[0]! : 0}
+        binSpacing={bins && bins.frequencies.length > 1 ? bins.frequencies[1]! - bins.frequencies[0]! : 0}
         onNext={setNext}
         onStep={(name, step) => {
           const marker = markers[name];
-          if (marker) setMarkers((m) => ({ ...m, [name]: markerAtBin(full, marker.index + step) }));
+          if (marker) withBins((spectrum) => setMarkers((m) => ({ ...m, [name]: markerAtBin(spectrum, marker.index + step) })));
         }}
         onPeak={(name) => {
-          if (peak.level !== null) place(name, markerAt(full, peak.frequency));
+          if (peak.level !== null) withBins((spectrum) => place(name, markerAt(spectrum, peak.frequency)));
         }}
         onClear={() => {
           setMarkers({});

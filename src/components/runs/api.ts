@@ -1,6 +1,6 @@
 /** Calls of the runs API from the browser; failures come back as the API's error. */
 import { requestJson, type ApiResult } from '../forms/api';
-import type { PlotDataByKind, PlotKind, Run, RunComparison, RunList, SubmittedRuns } from './types';
+import type { PlotDataByKind, PlotKind, Run, RunComparison, RunList, SpectrumPlotData, SubmittedRuns } from './types';
 
 const base = (id: string) => `/api/runs/${encodeURIComponent(id)}`;
 
@@ -36,6 +36,12 @@ export async function fetchRun(id: string): Promise<Run> {
 export async function fetchPlot<K extends PlotKind>(id: string, probe: string, kind: K, width: number): Promise<PlotDataByKind[K]> {
   const search = new URLSearchParams({ probe, kind, width: String(width) });
   return unwrap(await requestJson<PlotDataByKind[K]>('GET', `${base(id)}/plot?${search}`));
+}
+
+/** Every bin of one probe's spectrum (what markers snap to); fetched only once a marker is placed. */
+export async function fetchSpectrumBins(id: string, probe: string): Promise<SpectrumPlotData> {
+  const search = new URLSearchParams({ probe, kind: 'spectrum', full: '1' });
+  return unwrap(await requestJson<SpectrumPlotData>('GET', `${base(id)}/plot?${search}`));
 }
 
 /** Spectra (at most `width` points each, px) and readouts of two or more runs. */

@@ -13,3 +13,5 @@ export { abortError, ChainRunError, isAbortError } from './run-error';
 export { runChain } from './runner';
 export type { ChainRunResult, RunOptions, RunProgress } from './runner';
 export { ConstellationSampler, DefaultProbe } from './default-probe';
+export { buildResults, finiteJsonNumbers, runResultsSchema } from './results';
+export type { ResultProbe, ResultReadout, ResultSpectrum, ResultsInput, RunFigures, RunResults } from './results';

@@ -70,6 +70,14 @@ export function runJobCaptureOf(row: CaptureRow): RunJobCapture {
   };
 }
 
+/** Several captures with their owners' names in one query, by id (ids that match nothing are absent). */
+export async function findCaptures(db: Knex, ids: string[]): Promise<Map<string, CaptureWithOwner>> {
+  const wellFormed = [...new Set(ids)].filter((id) => /^[0-9a-f-]{36}$/i.test(id));
+  if (wellFormed.length === 0) return new Map();
+  const rows = (await captureQuery(db).whereIn('captures.id', wellFormed)) as CaptureWithOwner[];
+  return new Map(rows.map((row) => [row.id, row]));
+}
+
 /** Parses a JSON text column, falling back to `fallback` if it is not valid JSON. */
 export function parseJsonColumn<T>(text: string | null, fallback: T): T {
   if (text === null) return fallback;

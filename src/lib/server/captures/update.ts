@@ -62,10 +62,18 @@ export async function updateCapture(db: Knex, row: CaptureWithOwner, changes: Ca
 
 /** Removes the row, then the samples (a failed object delete leaves stray bytes, never a row without bytes). */
 export async function deleteCapture(db: Knex, store: ObjectStore, row: Pick<CaptureRow, 'id' | 'storage_key'>): Promise<void> {
-  await db('captures').where({ id: row.id }).delete();
-  try {
-    await store.delete(row.storage_key);
-  } catch (error) {
-    console.error(`Capture ${row.id} is deleted but its object ${row.storage_key} could not be removed:`, error);
+  await deleteCaptures(db, store, [row]);
+}
+
+/** Deletes several captures in one statement, then their objects (a failure to remove one is logged). */
+export async function deleteCaptures(db: Knex, store: ObjectStore, rows: Pick<CaptureRow, 'id' | 'storage_key'>[]): Promise<void> {
+  if (rows.length === 0) return;
+  await db('captures').whereIn('id', rows.map((row) => row.id)).delete();
+  for (const row of rows) {
+    try {
+      await store.delete(row.storage_key);
+    } catch (error) {
+      console.error(`Capture ${row.id} is deleted but its object ${row.storage_key} could not be removed:`, error);
+    }
   }
 }

@@ -5,6 +5,7 @@ export {
   captureAllowance,
   quotaError,
   quotaOf,
+  quotasOf,
   setUserQuota,
   storageUsage,
   storageUsed,

@@ -17,15 +17,30 @@ interface UserQuotaRow {
 
 /** The quota in force for a user: overrides where set, defaults elsewhere. */
 export async function quotaOf(db: Knex, userId: string): Promise<Quota> {
+  return (await quotasOf(db, [userId])).get(userId)!;
+}
+
+/** The quotas of several users in one query, by user id. */
+export async function quotasOf(db: Knex, userIds: string[]): Promise<Map<string, Quota>> {
   const defaults = defaultQuota();
-  const row = await db<UserQuotaRow>('user_quotas').where({ user_id: userId }).first();
-  if (!row) return defaults;
-  return {
-    storageBytes: row.storage_bytes === null ? defaults.storageBytes : Number(row.storage_bytes),
-    largestCaptureBytes: row.largest_capture_bytes === null ? defaults.largestCaptureBytes : Number(row.largest_capture_bytes),
-    computeSecondsPerDay: row.compute_seconds_per_day ?? defaults.computeSecondsPerDay,
-    concurrentRuns: row.concurrent_runs ?? defaults.concurrentRuns,
-  };
+  const ids = [...new Set(userIds)];
+  const rows = ids.length > 0 ? await db<UserQuotaRow>('user_quotas').whereIn('user_id', ids) : [];
+  const byUser = new Map(rows.map((row) => [row.user_id, row]));
+  return new Map(
+    ids.map((id) => {
+      const row = byUser.get(id);
+      if (!row) return [id, defaults];
+      return [
+        id,
+        {
+          storageBytes: row.storage_bytes === null ? defaults.storageBytes : Number(row.storage_bytes),
+          largestCaptureBytes: row.largest_capture_bytes === null ? defaults.largestCaptureBytes : Number(row.largest_capture_bytes),
+          computeSecondsPerDay: row.compute_seconds_per_day ?? defaults.computeSecondsPerDay,
+          concurrentRuns: row.concurrent_runs ?? defaults.concurrentRuns,
+        },
+      ];
+    }),
+  );
 }
 
 /** Overrides some of a user's quota figures; null puts a figure back to the default. */

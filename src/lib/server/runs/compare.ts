@@ -1,46 +1,55 @@
 /**
  * Comparing runs (the same chain on captures of two board revisions, say): every spectrum of every
  * run, reduced for the plot, and every readout side by side with its difference from the first
- * run that has it.
+ * run that has it. Works on stored summaries and spectrum previews, read in one query each.
  */
+import type { Knex } from 'knex';
+import type { RunSummary, SpectrumPlotData } from '@/contracts/run-results';
+import type { ComparedReadout, ComparedSpectrum } from '@/contracts/run';
 import { reduceSpectrum } from './plot';
-import type { RunResults } from './results';
+import { spectrumPreviewsOf, summariesOf } from './results';
+import type { RunView } from './rows';
 
-export interface ComparedSpectrum {
+export type { ComparedReadout, ComparedSpectrum } from '@/contracts/run';
+
+/** One compared run: its summary and its spectra (stored previews). */
+export interface ComparedRunData {
   runId: string;
-  probe: string;
-  unit: string;
-  /** Hz, relative to the probed stream's 0 Hz. */
-  frequencies: number[];
-  levels: (number | null)[];
+  summary: RunSummary;
+  spectra: SpectrumPlotData[];
 }
 
-export interface ComparedReadout {
-  probe: string;
-  name: string;
-  unit: string;
-  /** Value per run id (runs without this readout are absent). */
-  values: Record<string, number | null>;
-  /** The run the differences are taken against: the first run (in request order) with a value. */
-  baseline: string | null;
-  /** value - baseline value per run id, in the readout's unit (dB for levels). */
-  differences: Record<string, number | null>;
+/** Summaries and spectrum previews of the succeeded runs among `runs`, in their order, with two queries in all. */
+export async function loadComparedRuns(db: Knex, runs: RunView[]): Promise<ComparedRunData[]> {
+  const succeeded = runs.filter((run) => run.status === 'succeeded' && run.result_id);
+  const resultIds = succeeded.map((run) => run.result_id!);
+  const [summaries, spectra] = await Promise.all([summariesOf(db, resultIds), spectrumPreviewsOf(db, resultIds)]);
+  const compared: ComparedRunData[] = [];
+  for (const run of succeeded) {
+    const summary = summaries.get(run.result_id!);
+    if (!summary) continue;
+    const byProbe = new Map((spectra.get(run.result_id!) ?? []).map((spectrum) => [spectrum.probe, spectrum]));
+    // Chain order, as the summary lists the test points.
+    const ordered = summary.testPoints.map((point) => byProbe.get(point.stageId)).filter((s): s is SpectrumPlotData => s !== undefined);
+    compared.push({ runId: run.id, summary, spectra: ordered });
+  }
+  return compared;
 }
 
 /** Spectra and readouts of succeeded runs, in request order; `width` bounds points per spectrum. */
-export function compareResults(runs: { runId: string; results: RunResults }[], width: number): { spectra: ComparedSpectrum[]; readouts: ComparedReadout[] } {
+export function compareResults(runs: ComparedRunData[], width: number): { spectra: ComparedSpectrum[]; readouts: ComparedReadout[] } {
   const spectra: ComparedSpectrum[] = [];
   const readouts = new Map<string, ComparedReadout>();
-  for (const { runId, results } of runs) {
-    for (const probe of results.probes) {
-      if (probe.spectrum) {
-        spectra.push({ runId, probe: probe.stageId, unit: probe.spectrum.unit, ...reduceSpectrum(probe.spectrum.frequencies, probe.spectrum.levels, width) });
-      }
-      for (const readout of probe.readouts ?? []) {
-        const key = JSON.stringify([probe.stageId, readout.name, readout.unit]);
+  for (const { runId, summary, spectra: runSpectra } of runs) {
+    for (const spectrum of runSpectra) {
+      spectra.push({ runId, probe: spectrum.probe, unit: spectrum.unit, ...reduceSpectrum(spectrum.frequencies, spectrum.levels, width) });
+    }
+    for (const point of summary.testPoints) {
+      for (const readout of point.readouts) {
+        const key = JSON.stringify([point.stageId, readout.name, readout.unit]);
         let entry = readouts.get(key);
         if (!entry) {
-          entry = { probe: probe.stageId, name: readout.name, unit: readout.unit, values: {}, baseline: null, differences: {} };
+          entry = { probe: point.stageId, name: readout.name, unit: readout.unit, values: {}, baseline: null, differences: {} };
           readouts.set(key, entry);
         }
         entry.values[runId] = readout.value;

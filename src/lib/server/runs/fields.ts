@@ -45,6 +45,8 @@ export const ListRunsQuery = z
     all: flagParam,
     page: z.coerce.number().int().min(1).max(100_000).default(1),
     page_size: z.coerce.number().int().min(1).max(200).default(50),
+    /** The list's `nextCursor`: the page after it, by keyset (takes the place of `page`). */
+    cursor: z.string().max(200).optional(),
   })
   .strict();
 
@@ -62,8 +64,11 @@ export const PlotQuery = z
     probe: z.string().min(1).max(64),
     kind: z.enum(['spectrum', 'spectrogram', 'trace', 'constellation']),
     width: z.coerce.number().int().min(2).max(10_000).default(1000),
+    /** Every bin of a spectrum instead of the reduced preview (for markers that snap to bins). */
+    full: flagParam,
   })
-  .strict();
+  .strict()
+  .refine((query) => !query.full || query.kind === 'spectrum', { message: 'full=1 is only for kind=spectrum.', path: ['full'] });
 
 /** GET /api/runs/compare query: 2 to 10 run ids, comma separated. */
 export const CompareQuery = z

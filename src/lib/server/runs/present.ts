@@ -5,42 +5,10 @@
  */
 import { access, can, type Actor } from '@/lib/permissions';
 import { finishedStatuses, flag, runResource, type RunStatus, type RunView } from './rows';
-import type { RunResults } from './results';
+import type { PresentedRun, PresentedRunError } from '@/contracts/run';
+import type { RunSummary } from '@/contracts/run-results';
 
-export interface PresentedRunError {
-  message: string;
-  /** The stage that failed, or null when the capture itself (or the server) failed. */
-  stageId: string | null;
-  /** The failing stage's kind, or `input` / `internal`. */
-  kind: string;
-  /** Input sample of that stage where it failed, or null when unknown. */
-  sampleIndex: number | null;
-}
-
-export interface PresentedRun {
-  id: string;
-  chain: { id: string; name: string; revision: number };
-  capture: { id: string; name: string };
-  status: RunStatus;
-  /** 0..1. */
-  progress: number;
-  currentStage: string | null;
-  /** Estimated seconds left (s), or null when not running or too early to tell. */
-  etaSeconds: number | null;
-  requestedBy: { id: string; name: string };
-  createdAt: string;
-  startedAt: string | null;
-  finishedAt: string | null;
-  /** Wall time from start to end (ms), or null until finished. */
-  durationMs: number | null;
-  fromCache: boolean;
-  attempt: number;
-  retryOf: string | null;
-  error: PresentedRunError | null;
-  permissions: { cancel: boolean; retry: boolean };
-  /** Only in GET /api/runs/:id of a succeeded run: the command line's results.json shape. */
-  results?: RunResults;
-}
+export type { PresentedRun, PresentedRunError };
 
 function iso(value: string | null): string | null {
   return value === null ? null : new Date(value).toISOString();
@@ -59,7 +27,7 @@ function nameVisible(viewer: Actor, runVisible: boolean, ownerId: string | null,
 }
 
 /** The run as `viewer` sees it, with what `viewer` may do to it. */
-export function presentRun(run: RunView, viewer: Actor, results?: RunResults): PresentedRun {
+export function presentRun(run: RunView, viewer: Actor, summary?: RunSummary): PresentedRun {
   const resource = runResource(run);
   const visible = access(viewer, 'run.read', resource) === 'allowed';
   const active = !finishedStatuses.has(run.status);
@@ -101,6 +69,6 @@ export function presentRun(run: RunView, viewer: Actor, results?: RunResults): P
       retry: (run.status === 'failed' || run.status === 'cancelled') && owns && can(viewer, 'run.create'),
     },
   };
-  if (results !== undefined) presented.results = results;
+  if (summary !== undefined) presented.summary = summary;
   return presented;
 }

@@ -5,6 +5,7 @@
  */
 import type { ChainDocument } from '@/dsp/chain';
 import type { RunJobCapture } from '@/contracts/capture';
+import type { ProbeDataEntry } from './probe-data';
 
 /** What a worker is asked to do (sent as workerData). */
 export interface RunJob {
@@ -41,7 +42,16 @@ export interface StoredOutput {
 
 export type WorkerMessage =
   | { type: 'progress'; fraction: number; samplesIn: number; stageId: string | null }
-  | { type: 'succeeded'; resultsJson: string; output: StoredOutput; seconds: number }
+  | {
+      type: 'succeeded';
+      /** results.json text. */
+      resultsJson: string;
+      /** RunSummary JSON text. */
+      summaryJson: string;
+      probeData: ProbeDataEntry[];
+      output: StoredOutput;
+      seconds: number;
+    }
   | { type: 'failed'; error: RunFailure; seconds: number }
   | { type: 'cancelled'; seconds: number };
 

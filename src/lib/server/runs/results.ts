@@ -1,70 +1,68 @@
 /**
- * Reading a run's results back: the cached result row a succeeded run points at, and its JSON in
- * the command line's results.json shape (probes with spectra, readouts, spectrograms, traces).
+ * Reading a run's results back without parsing the whole document: the result row a succeeded run
+ * points at, its summary, and one probe's stored plot data (the preview, or every bin of a
+ * spectrum). Only the JSON export sends the results document, as stored text.
  */
 import type { Knex } from 'knex';
-import type { ChainIssue, SpectrogramResult, StreamFormat, TraceResult } from '@/dsp/types';
-import { ApiError } from '../api/errors';
-import type { RunResultRow, RunView } from './rows';
-
-/** One probe of results.json (levels may be null where the engine had -Infinity or NaN). */
-export interface ResultProbe {
-  stageId: string;
-  kind: string;
-  format: StreamFormat;
-  spectrum?: {
-    unit: string;
-    peak: { frequency: number; level: number | null };
-    resolutionBandwidth: number;
-    segments: number;
-    frequencies: number[];
-    levels: (number | null)[];
-  };
-  readouts?: { name: string; value: number | null; unit: string }[];
-  spectrogram?: SpectrogramResult;
-  trace?: TraceResult;
-  constellation?: number[];
-}
-
-/** results.json as the command line writes it (src/cli/results.ts); paths name API resources here. */
-export interface RunResults {
-  engineVersion: string;
-  createdAt: string;
-  chain: { path: string; name: string; stages: { id: string; kind: string; probe?: boolean; bypass?: boolean }[] };
-  input: {
-    path: string;
-    container: string;
-    datatype: string;
-    layout: string;
-    /** Hz. */
-    sampleRate: number;
-    /** Hz, or null. */
-    centerFrequency: number | null;
-    samples: number;
-    /** s. */
-    durationSeconds: number;
-  };
-  output: { meta: string; data: string; datatype: string; layout: string; sampleRate: number; centerFrequency: number | null; samples: number };
-  probes: ResultProbe[];
-  issues: ChainIssue[];
-  /** Run time (s) and input samples per second. */
-  timing: { seconds: number; inputSamplesPerSecond: number | null };
-}
+import type { PlotData, PlotKind, RunSummary, SpectrumPlotData } from '@/contracts/run-results';
+import { ApiError, notFound } from '../api/errors';
+import type { RunProbeDataRow, RunResultRow, RunView } from './rows';
 
 /** 409 for a run that has no results (yet, or ever). */
-export function noResults(run: RunView): ApiError {
+export function noResults(run: Pick<RunView, 'status'>): ApiError {
   return new ApiError(409, 'no_results', `This run is ${run.status}; only a succeeded run has results.`);
 }
 
-/** The result row of a succeeded run; 409 `no_results` otherwise. */
-export async function resultRowOf(db: Knex, run: RunView): Promise<RunResultRow> {
+/** The result row of a succeeded run (without the results text unless asked); 409 `no_results` otherwise. */
+export async function resultRowOf(db: Knex, run: RunView, columns: (keyof RunResultRow)[] = ['id', 'output_key', 'output_meta', 'summary']): Promise<RunResultRow> {
   if (run.status !== 'succeeded' || !run.result_id) throw noResults(run);
-  const row = (await db('run_results').where({ id: run.result_id }).first()) as RunResultRow | undefined;
+  const row = (await db('run_results').where({ id: run.result_id }).first(columns)) as RunResultRow | undefined;
   if (!row) throw noResults(run);
   return row;
 }
 
-/** The parsed results of a succeeded run; 409 `no_results` otherwise. */
-export async function resultsOf(db: Knex, run: RunView): Promise<RunResults> {
-  return JSON.parse((await resultRowOf(db, run)).results) as RunResults;
+/** Summaries of several results in one query, by result id (those filed before summaries existed are absent). */
+export async function summariesOf(db: Knex, resultIds: string[]): Promise<Map<string, RunSummary>> {
+  const summaries = new Map<string, RunSummary>();
+  if (resultIds.length === 0) return summaries;
+  const rows = (await db('run_results').whereIn('id', [...new Set(resultIds)]).whereNotNull('summary').select('id', 'summary')) as Pick<RunResultRow, 'id' | 'summary'>[];
+  for (const row of rows) summaries.set(row.id, JSON.parse(row.summary!) as RunSummary);
+  return summaries;
+}
+
+/** The summary of a succeeded run; 409 `no_results` otherwise. */
+export async function summaryOf(db: Knex, run: RunView): Promise<RunSummary> {
+  const row = await resultRowOf(db, run, ['id', 'summary']);
+  if (row.summary === null) throw noResults(run);
+  return JSON.parse(row.summary) as RunSummary;
+}
+
+/** One probe's stored data of one kind: the reduced preview, or `full` (every point); 404 naming `probe` when absent. */
+export async function probePlotOf(db: Knex, run: RunView, probe: string, kind: PlotKind, full = false): Promise<PlotData> {
+  if (run.status !== 'succeeded' || !run.result_id) throw noResults(run);
+  const row = (await db('run_probe_data')
+    .where({ result_id: run.result_id, stage_id: probe, kind })
+    .first(full ? 'data' : 'preview')) as Partial<Pick<RunProbeDataRow, 'data' | 'preview'>> | undefined;
+  if (!row) {
+    const known = (await db('run_probe_data').where({ result_id: run.result_id, stage_id: probe }).first('kind')) as object | undefined;
+    if (!known) throw new ApiError(404, 'not_found', `No probe "${probe}" in this run.`, 'probe');
+    throw notFound(`${kind} for probe "${probe}"`);
+  }
+  return JSON.parse((full ? row.data : row.preview)!) as PlotData;
+}
+
+/** Stored spectrum previews of several results in one query: result id -> previews (any order). */
+export async function spectrumPreviewsOf(db: Knex, resultIds: string[]): Promise<Map<string, SpectrumPlotData[]>> {
+  const previews = new Map<string, SpectrumPlotData[]>();
+  if (resultIds.length === 0) return previews;
+  const rows = (await db('run_probe_data')
+    .whereIn('result_id', [...new Set(resultIds)])
+    .where({ kind: 'spectrum' })
+    .select('result_id', 'stage_id', 'preview')) as Pick<RunProbeDataRow, 'result_id' | 'stage_id' | 'preview'>[];
+  for (const row of rows) {
+    const list = previews.get(row.result_id) ?? [];
+    list.push(JSON.parse(row.preview) as SpectrumPlotData);
+    previews.set(row.result_id, list);
+  }
+  return previews;
 }

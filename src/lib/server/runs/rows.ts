@@ -6,8 +6,9 @@
 import type { Knex } from 'knex';
 import type { OwnedResource } from '@/lib/permissions';
 
-export const runStatuses = ['queued', 'running', 'succeeded', 'failed', 'cancelled'] as const;
-export type RunStatus = (typeof runStatuses)[number];
+import { runStatuses, type RunStatus } from '@/contracts/run';
+
+export { runStatuses, type RunStatus };
 
 /** Statuses a run never leaves. */
 export const finishedStatuses: ReadonlySet<RunStatus> = new Set(['succeeded', 'failed', 'cancelled']);
@@ -58,8 +59,10 @@ export interface RunResultRow {
   chain_hash: string;
   capture_sha256: string;
   engine_version: string;
-  /** JSON text in the command line's results.json shape. */
+  /** JSON text in the engine's results.json shape (what the JSON export sends). */
   results: string;
+  /** RunSummary JSON text; null only for a result filed before summaries existed, until start-up fills it. */
+  summary: string | null;
   output_key: string;
   /** SigMF metadata text of the output capture. */
   output_meta: string;
@@ -67,6 +70,15 @@ export interface RunResultRow {
   output_samples: number;
   compute_seconds: number;
   created_at: string;
+}
+
+/** One probe's data of one plot kind for a cached result (PlotData JSON texts). */
+export interface RunProbeDataRow {
+  result_id: string;
+  stage_id: string;
+  kind: string;
+  data: string;
+  preview: string;
 }
 
 /** Runs joined with requester names and the visibility of their chains and captures. */

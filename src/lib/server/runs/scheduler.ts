@@ -1,23 +1,23 @@
 /**
- * The run scheduler of this server process. The runs table is the queue; p-queue is the pool that
- * bounds how many runs execute at once (QUADRILLE_RUN_CONCURRENCY). Whenever a slot is free the
- * scheduler picks the next queued run fairly (users take turns, each within their concurrent-run
- * quota), claims it, and executes it in a worker thread. Only one server process may run the queue
- * of a data folder: on start it takes back every run left running.
+ * The run scheduler of this server process. The runs table is the queue; at most
+ * QUADRILLE_RUN_CONCURRENCY runs execute at once. Whenever a slot is free the scheduler picks the
+ * next queued run fairly (users take turns, each within their concurrent-run quota), claims it,
+ * and executes it in a worker thread. Only one server process may run the queue of a data folder:
+ * on start it takes back every run left running; on stop it lets executing runs finish within a
+ * grace period and puts the others back in the queue.
  */
 import { randomUUID } from 'node:crypto';
 import type { Knex } from 'knex';
-import PQueue from 'p-queue';
 import { ENGINE_VERSION } from '@/dsp/version';
 import { readStoredChainDocument } from '@/contracts/chain';
 import { getDb } from '../db';
 import { getObjectStore } from '../captures/store';
 import { findCapture } from '../captures/rows';
 import { findRevision } from '../chains/rows';
-import { quotaOf } from '../quota';
+import { quotaOf, quotasOf } from '../quota';
 import { computeSecondsToday } from './usage';
 import type { ObjectStore } from '../storage';
-import { cacheKey, computationHash } from './cache-key';
+import { computationHash } from './cache-key';
 import { progressIntervalMs, runConcurrency, workerNiceness } from './config';
 import { pickNextRun, type QueuedRun } from './fairness';
 import type { RunJob } from './protocol';
@@ -30,6 +30,7 @@ import {
   recordFailure,
   recordProgress,
   requeueInterruptedRuns,
+  requeueStoppedRun,
 } from './transitions';
 import { startWorker, type WorkerRun } from './worker-host';
 
@@ -38,10 +39,20 @@ export function outputObjectKey(): string {
   return `run-outputs/${randomUUID()}/data`;
 }
 
+interface ActiveRun {
+  userId: string;
+  worker: WorkerRun | null;
+  cancelled: boolean;
+  /** Stopped by a shutdown: goes back to the queue rather than ending cancelled. */
+  stopping: boolean;
+  /** Settles when the run's execution (and its filing) is over. */
+  done: Promise<void>;
+}
+
 export class RunScheduler {
-  private readonly pool: PQueue;
   /** Runs claimed by this process, by id, with their worker once started. */
-  private readonly active = new Map<string, { userId: string; worker: WorkerRun | null; cancelled: boolean }>();
+  private readonly active = new Map<string, ActiveRun>();
+  private stopped = false;
   private readonly lastServed = new Map<string, number>();
   private served = 0;
   private pumping = false;
@@ -51,9 +62,7 @@ export class RunScheduler {
     private readonly db: Knex,
     private readonly store: ObjectStore,
     readonly concurrency: number = runConcurrency(),
-  ) {
-    this.pool = new PQueue({ concurrency });
-  }
+  ) {}
 
   /** Takes back runs a previous process left running, then starts executing the queue. */
   async start(): Promise<number> {
@@ -63,8 +72,29 @@ export class RunScheduler {
     return requeued;
   }
 
+  /**
+   * Stops taking runs from the queue and waits up to `graceMs` for executing runs to finish; the
+   * ones still executing then are stopped, their output deleted, and put back in the queue.
+   * Answers how many were put back.
+   */
+  async stop(graceMs: number): Promise<number> {
+    this.stopped = true;
+    const all = () => Promise.allSettled([...this.active.values()].map((run) => run.done));
+    let timer: NodeJS.Timeout | undefined;
+    await Promise.race([all(), new Promise<void>((resolve) => (timer = setTimeout(resolve, graceMs)))]);
+    clearTimeout(timer);
+    const stopping = [...this.active.values()];
+    for (const run of stopping) {
+      run.stopping = true;
+      run.worker?.cancel();
+    }
+    await all();
+    return stopping.length;
+  }
+
   /** Looks for queued runs to start (after a submission, a finish or a quota change). */
   wake(): void {
+    if (this.stopped) return;
     void this.pump().catch((error: unknown) => console.error('Run scheduler could not pick the next run:', error));
   }
 
@@ -95,15 +125,15 @@ export class RunScheduler {
     try {
       do {
         this.pumpAgain = false;
-        while (this.active.size < this.concurrency) {
+        while (!this.stopped && this.active.size < this.concurrency) {
           const next = await this.pickNext();
           if (!next) break;
           const outputKey = outputObjectKey();
           if (!(await claimRun(this.db, next.id, outputKey))) continue;
           this.lastServed.set(next.userId, ++this.served);
-          this.active.set(next.id, { userId: next.userId, worker: null, cancelled: false });
-          void this.pool
-            .add(() => this.execute(next.id, outputKey))
+          const active: ActiveRun = { userId: next.userId, worker: null, cancelled: false, stopping: false, done: Promise.resolve() };
+          this.active.set(next.id, active);
+          active.done = this.execute(next.id, outputKey)
             .catch((error: unknown) => console.error(`Run ${next.id} could not be executed:`, error))
             .finally(() => {
               this.active.delete(next.id);
@@ -128,13 +158,9 @@ export class RunScheduler {
       count: number | string;
     }[];
     const running = new Map(runningRows.map((row) => [row.requested_by, Number(row.count)]));
-    const users = [...new Set(queued.map((run) => run.requested_by))];
-    const limits = new Map<string, number>();
-    for (const userId of users) {
-      const quota = await quotaOf(this.db, userId);
-      // A quota of 0 concurrent runs would park the user's runs forever; it means "one at a time".
-      limits.set(userId, Math.max(1, quota.concurrentRuns));
-    }
+    const quotas = await quotasOf(this.db, queued.map((run) => run.requested_by));
+    // A quota of 0 concurrent runs would park the user's runs forever; it means "one at a time".
+    const limits = new Map([...quotas].map(([userId, quota]) => [userId, Math.max(1, quota.concurrentRuns)]));
     return pickNextRun(
       queued.map((run) => ({ id: run.id, userId: run.requested_by })),
       { running, limits, lastServed: this.lastServed },
@@ -152,8 +178,8 @@ export class RunScheduler {
       return;
     }
     const document = readStoredChainDocument(revision.document);
-    const chainHash = computationHash(document);
-    const facts = { cacheKey: cacheKey(chainHash, capture.sha256, ENGINE_VERSION), chainHash, captureSha256: capture.sha256, engineVersion: ENGINE_VERSION };
+    // Submission keyed the run; the key is not worked out again here (the chain hash is only filed).
+    const facts = { cacheKey: run.cache_key, chainHash: computationHash(document), captureSha256: capture.sha256, engineVersion: ENGINE_VERSION };
     // An identical run may have finished while this one waited in the queue.
     const cached = (await this.db('run_results').where({ cache_key: facts.cacheKey }).first('id')) as { id: string } | undefined;
     if (cached) {
@@ -188,24 +214,42 @@ export class RunScheduler {
     };
     const active = this.active.get(runId)!;
     const worker = startWorker(job, (message) => {
-      void recordProgress(this.db, runId, message.fraction, message.stageId).catch(() => undefined);
+      // A lost progress update only delays the bar; the next one (or the end) corrects it.
+      recordProgress(this.db, runId, message.fraction, message.stageId).catch((error: unknown) => console.error(`Run ${runId}: progress not recorded:`, error));
     });
     active.worker = worker;
-    if (active.cancelled) worker.cancel();
+    if (active.cancelled || active.stopping) worker.cancel();
     const outcome = await worker.outcome;
     if (outcome.type === 'succeeded') {
-      const filed = await completeSucceeded(this.db, run, facts, outcome.output, outcome.resultsJson, outcome.seconds).catch(async (error: unknown) => {
+      const filed = await completeSucceeded(
+        this.db,
+        run,
+        facts,
+        outcome.output,
+        { resultsJson: outcome.resultsJson, summaryJson: outcome.summaryJson, probeData: outcome.probeData },
+        outcome.seconds,
+      ).catch(async (error: unknown) => {
         console.error(`Run ${runId}: could not file its results:`, error);
         await recordFailure(this.db, run, { message: 'The results could not be saved.', stageId: null, kind: 'internal', sampleIndex: null }, outcome.seconds);
         return { status: 'failed' as const, orphanKey: outcome.output.key };
       });
-      if (filed.orphanKey) await this.store.delete(filed.orphanKey).catch(() => undefined);
+      if (filed.orphanKey) await this.deleteOutput(runId, filed.orphanKey);
       return;
     }
     // Whatever a stopped or failed worker wrote is not a result.
-    await this.store.delete(outputKey).catch(() => undefined);
-    if (outcome.type === 'failed') await recordFailure(this.db, run, outcome.error, outcome.seconds);
+    await this.deleteOutput(runId, outputKey);
+    if (active.stopping && !active.cancelled && outcome.type === 'cancelled') await requeueStoppedRun(this.db, run);
+    else if (outcome.type === 'failed') await recordFailure(this.db, run, outcome.error, outcome.seconds);
     else await recordCancelled(this.db, run, outcome.seconds);
+  }
+
+  /** Deletes an output object no run keeps; a failure is logged with the key, so it can be removed by hand. */
+  private async deleteOutput(runId: string, key: string): Promise<void> {
+    try {
+      await this.store.delete(key);
+    } catch (error) {
+      console.error(`Run ${runId}: could not delete its unused output object ${key}:`, error);
+    }
   }
 }
 
@@ -222,4 +266,10 @@ export function getRunScheduler(): RunScheduler {
 /** Starts this process's scheduler: requeues interrupted runs and begins executing the queue. */
 export async function startRunScheduler(): Promise<void> {
   await getRunScheduler().start();
+}
+
+/** Stops this process's scheduler if it was made: running runs finish within `graceMs` or go back to the queue. */
+export async function stopRunScheduler(graceMs: number): Promise<number> {
+  const scheduler = (globalThis as Holder)[holderKey];
+  return scheduler ? scheduler.stop(graceMs) : 0;
 }

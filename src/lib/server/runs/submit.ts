@@ -12,7 +12,7 @@ import { streamFormatOf } from '@/contracts/capture';
 import { readStoredChainDocument } from '@/contracts/chain';
 import { ENGINE_VERSION } from '@/dsp/version';
 import { ApiError, conflict, forbidden, unprocessable } from '../api/errors';
-import { captureFormatOf, findCapture, type CaptureWithOwner } from '../captures/rows';
+import { captureFormatOf, findCaptures, type CaptureWithOwner } from '../captures/rows';
 import { chainResource, findChain, findRevision } from '../chains/rows';
 import { cacheKey, computationHash } from './cache-key';
 import type { RunRow, RunStatus, RunView } from './rows';
@@ -54,10 +54,12 @@ function missing(what: string, field: string): ApiError {
   return new ApiError(404, 'not_found', `No such ${what}.`, field);
 }
 
+/** The captures of the request in its order, read in one query; 404 naming the first one missing or hidden. */
 async function loadCaptures(db: Knex, user: Actor, request: RunRequest): Promise<CaptureWithOwner[]> {
+  const found = await findCaptures(db, request.captureIds);
   const captures: CaptureWithOwner[] = [];
   for (const [index, id] of request.captureIds.entries()) {
-    const capture = await findCapture(db, id);
+    const capture = found.get(id);
     const outcome = capture ? access(user, 'capture.read', { ownerId: capture.owner_id, visibility: capture.visibility }) : 'hidden';
     if (outcome !== 'allowed') {
       throw missing('capture', request.captureField(index));
@@ -93,10 +95,6 @@ export async function submitRuns(db: Knex, user: Actor, request: RunRequest, ret
     }
   }
   const misses = keys.filter((key) => !cached.has(key)).length;
-  if (misses > 0) {
-    await assertComputeLeft(db, user.id);
-    await assertRoomInQueue(db, user.id, misses);
-  }
 
   const now = new Date().toISOString();
   const rows: RunRow[] = captures.map((capture, index) => {
@@ -130,6 +128,11 @@ export async function submitRuns(db: Knex, user: Actor, request: RunRequest, ret
     };
   });
   await db.transaction(async (trx) => {
+    // Checked in the transaction that inserts, so two requests at once cannot both pass the limit.
+    if (misses > 0) {
+      await assertComputeLeft(trx, user.id);
+      await assertRoomInQueue(trx, user.id, misses);
+    }
     // Many captures at once: insert in slices well below SQLite's bound-variable limit.
     for (let start = 0; start < rows.length; start += 20) await trx('runs').insert(rows.slice(start, start + 20));
   });

@@ -7,8 +7,9 @@
 import { randomUUID } from 'node:crypto';
 import type { Knex } from 'knex';
 import type { ObjectStore } from '../storage';
+import type { ProbeDataEntry } from './probe-data';
 import type { RunFailure, StoredOutput } from './protocol';
-import type { RunResultRow, RunRow } from './rows';
+import type { RunProbeDataRow, RunResultRow, RunRow } from './rows';
 import { publishRunNotice } from './events';
 
 /** UTC day (YYYY-MM-DD) a time falls on; compute quotas count per UTC day. */
@@ -56,6 +57,19 @@ export interface CacheFacts {
   engineVersion: string;
 }
 
+/** What a worker hands over of a successful run, ready to file (JSON texts). */
+export interface FiledResults {
+  resultsJson: string;
+  summaryJson: string;
+  probeData: ProbeDataEntry[];
+}
+
+/** Inserts a result's probe data rows, in slices well below SQLite's bound-variable limit. */
+export async function insertProbeData(db: Knex, resultId: string, entries: ProbeDataEntry[]): Promise<void> {
+  const rows: RunProbeDataRow[] = entries.map((entry) => ({ result_id: resultId, stage_id: entry.stageId, kind: entry.kind, data: entry.data, preview: entry.preview }));
+  for (let start = 0; start < rows.length; start += 50) await db('run_probe_data').insert(rows.slice(start, start + 50));
+}
+
 /** Thrown inside the success transaction when the run was cancelled while its output was being stored. */
 class CancelledMeanwhile extends Error {}
 
@@ -69,7 +83,7 @@ export async function completeSucceeded(
   run: RunRow,
   facts: CacheFacts,
   output: StoredOutput,
-  resultsJson: string,
+  filed: FiledResults,
   seconds: number,
 ): Promise<{ status: 'succeeded' | 'cancelled'; orphanKey: string | null }> {
   const finished = new Date();
@@ -86,7 +100,8 @@ export async function completeSucceeded(
           chain_hash: facts.chainHash,
           capture_sha256: facts.captureSha256,
           engine_version: facts.engineVersion,
-          results: resultsJson,
+          results: filed.resultsJson,
+          summary: filed.summaryJson,
           output_key: output.key,
           output_meta: output.meta,
           output_bytes: output.bytes,
@@ -95,6 +110,7 @@ export async function completeSucceeded(
           created_at: finished.toISOString(),
         };
         await trx('run_results').insert(row);
+        await insertProbeData(trx, row.id, filed.probeData);
         resultId = row.id;
       }
       await trx('runs').where({ id: run.id }).update({
@@ -178,6 +194,14 @@ export async function recordCancelled(db: Knex, run: Pick<RunRow, 'id' | 'reques
   return changed;
 }
 
+/** Puts a run this process stopped at shutdown back in the queue (its output was deleted); no compute seconds are counted. */
+export async function requeueStoppedRun(db: Knex, run: Pick<RunRow, 'id'>): Promise<void> {
+  const updated = await db('runs')
+    .where({ id: run.id, status: 'running' })
+    .update({ status: 'queued', progress: 0, current_stage: null, started_at: null, pending_output_key: null });
+  if (updated > 0) notify(run, 'queued', 0);
+}
+
 /**
  * After a restart: runs left running by a process that died are queued again, and whatever their
  * killed attempts were writing is removed. Answers how many runs were put back.
@@ -185,7 +209,13 @@ export async function recordCancelled(db: Knex, run: Pick<RunRow, 'id' | 'reques
 export async function requeueInterruptedRuns(db: Knex, store: ObjectStore): Promise<number> {
   const interrupted = (await db('runs').where({ status: 'running' }).select('id', 'pending_output_key', 'cancel_requested')) as RunRow[];
   for (const run of interrupted) {
-    if (run.pending_output_key) await store.delete(run.pending_output_key).catch(() => undefined);
+    if (run.pending_output_key) {
+      try {
+        await store.delete(run.pending_output_key);
+      } catch (error) {
+        console.error(`Run ${run.id}: could not delete the output object ${run.pending_output_key} of its interrupted attempt:`, error);
+      }
+    }
     if (run.cancel_requested) {
       await db('runs').where({ id: run.id }).update({ status: 'cancelled', pending_output_key: null, finished_at: new Date().toISOString() });
       continue;

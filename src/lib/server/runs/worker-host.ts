@@ -8,6 +8,7 @@ import { dirname, resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import { cancelGraceMs, workerEntryOverride } from './config';
+import { workerHeapMb } from './shutdown-config';
 import type { RunJob, SchedulerMessage, WorkerMessage, WorkerOutcome } from './protocol';
 
 interface WorkerEntry {
@@ -57,7 +58,12 @@ export interface WorkerRun {
 export function startWorker(job: RunJob, onProgress: (message: Extract<WorkerMessage, { type: 'progress' }>) => void): WorkerRun {
   const entry = workerEntry();
   const started = performance.now();
-  const worker = new Worker(entry.code, { workerData: job, eval: entry.eval });
+  const worker = new Worker(entry.code, {
+    workerData: job,
+    eval: entry.eval,
+    // A run that outgrows its heap fails with an out-of-memory error instead of swelling the server.
+    resourceLimits: { maxOldGenerationSizeMb: workerHeapMb() },
+  });
   let cancelled = false;
   let settled = false;
   let settle!: (message: WorkerOutcome) => void;

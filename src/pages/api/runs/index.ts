@@ -7,7 +7,7 @@ import { can } from '@/lib/permissions';
 import { getRunScheduler, listRuns, presentRun, submitRuns } from '@/lib/server/runs';
 import { ListRunsQuery, SubmitRunsBody } from '@/lib/server/runs/fields';
 
-/** Runs the user can see, newest first; `?all=1` (admins) the whole queue; filters status, chain_id, capture_id, mine. */
+/** Runs the user can see, newest first; `?all=1` (admins) the whole queue; filters status, chain_id, capture_id, mine; `cursor` (the answer's nextCursor) or `page`. */
 export const GET = endpoint(async (context) => {
   authorize(context, 'run.read');
   const user = context.locals.user;
@@ -22,8 +22,15 @@ export const GET = endpoint(async (context) => {
     captureId: query.capture_id,
     page: query.page,
     pageSize: query.page_size,
+    cursor: query.cursor,
   });
-  return json({ runs: page.items.map((run) => presentRun(run, user)), total: page.total, page: query.page, pageSize: query.page_size });
+  return json({
+    runs: page.items.map((run) => presentRun(run, user)),
+    total: page.total,
+    page: query.page,
+    pageSize: query.page_size,
+    nextCursor: page.nextCursor,
+  });
 });
 
 /** Asks for a chain revision to run on one capture or several (one run each); cached results answer at once. */

@@ -3,10 +3,14 @@ import { unauthenticated } from '@/lib/server/api/errors';
 import { parseWith } from '@/lib/server/api/parse';
 import { json } from '@/lib/server/api/respond';
 import { getDb } from '@/lib/server/db';
-import { loadRunFor, plotData, resultsOf } from '@/lib/server/runs';
+import { loadRunFor, probePlotOf, reducePlot } from '@/lib/server/runs';
 import { PlotQuery } from '@/lib/server/runs/fields';
 
-/** One probe's plot data reduced to at most `width` points per row: `?probe=<stageId>&kind=spectrum|spectrogram|trace|constellation&width=<px>`. */
+/**
+ * One probe's plot data reduced to at most `width` points per row:
+ * `?probe=<stageId>&kind=spectrum|spectrogram|trace|constellation&width=<px>`; `full=1` (spectrum
+ * only) sends every bin. Reads that one probe's stored preview, never the whole results.
+ */
 export const GET = endpoint(async (context) => {
   authorize(context, 'run.read');
   const user = context.locals.user;
@@ -14,5 +18,6 @@ export const GET = endpoint(async (context) => {
   const db = getDb();
   const run = await loadRunFor(db, user, context.params.id ?? '', 'run.read');
   const query = parseWith(PlotQuery, Object.fromEntries(context.url.searchParams));
-  return json(plotData(await resultsOf(db, run), query.probe, query.kind, query.width));
+  const plot = await probePlotOf(db, run, query.probe, query.kind, query.full);
+  return json(query.full ? plot : reducePlot(plot, query.width));
 });
