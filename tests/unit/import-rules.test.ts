@@ -42,7 +42,7 @@ const rules: Rule[] = [
   { folders: ['src/lib/permissions.ts'], covers: (f) => f === 'src/lib/permissions.ts', internal: [], packages: [] },
   { folders: ['src/lib/units.ts'], covers: (f) => f === 'src/lib/units.ts', internal: [], packages: [] },
   { folders: ['src/lib/password-rules.ts'], covers: (f) => f === 'src/lib/password-rules.ts', internal: [], packages: [] },
-  { folders: ['src/lib/chain-diff.ts'], covers: (f) => f === 'src/lib/chain-diff.ts', internal: [], packages: [] },
+  { folders: ['src/lib/chain-diff.ts'], covers: (f) => f === 'src/lib/chain-diff.ts', internal: ['src/contracts/'], packages: [] },
   {
     folders: ['src/lib/config/'],
     covers: (f) => f.startsWith('src/lib/config/'),
