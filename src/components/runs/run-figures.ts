@@ -265,7 +265,10 @@ export function traceFigure(data: TracePlotData, theme: PlotTheme): Figure {
   };
 }
 
-/** Constellation: Q against I with equal scales, WebGL points. */
+/**
+ * Constellation: Q against I with equal scales. SVG points: the server sends at most one point per
+ * pixel column (a few thousand), which SVG draws quickly, so the page needs no WebGL traces.
+ */
 export function constellationFigure(data: ConstellationPlotData, theme: PlotTheme): Figure {
   const i: number[] = [];
   const q: number[] = [];
@@ -276,7 +279,7 @@ export function constellationFigure(data: ConstellationPlotData, theme: PlotThem
   return {
     data: [
       {
-        type: 'scattergl',
+        type: 'scatter',
         mode: 'markers',
         name: 'samples',
         x: i,
