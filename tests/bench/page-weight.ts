@@ -9,7 +9,8 @@
  *    Each in a fresh browser context (empty cache), --repeat N times (default 5): median, min, max.
  * 3. The largest JSON answers those pages received, raw and over the wire.
  *
- * Needs a build (`npm run build`) and Debian's chromium; QUADRILLE_TEST_DIST picks another build folder.
+ * Needs a build (`npm run build`) and Debian's chromium; QUADRILLE_TEST_DIST picks another build folder;
+ * QUADRILLE_SHOTS_DIR saves a screenshot of each page. Option: --repeat N.
  */
 import { chromium, type Browser, type BrowserContext, type Page, type Response } from 'playwright-core';
 import { Client } from '../helpers/client';
@@ -118,6 +119,8 @@ try {
     await page.locator(target.ready).first().waitFor({ timeout: 120_000 });
     await page.waitForLoadState('networkidle');
     await record.settled();
+    // QUADRILLE_SHOTS_DIR: a full-page screenshot of each page, to look at its plots.
+    if (process.env.QUADRILLE_SHOTS_DIR) await page.screenshot({ path: `${process.env.QUADRILLE_SHOTS_DIR}/weight-${target.name.replace(' ', '-')}.png`, fullPage: true });
     console.log(`  ${target.name.padEnd(13)} ${kB(sum(record.scripts, 'raw'))} / ${kB(sum(record.scripts, 'wire'))}   (${record.scripts.length} scripts)`);
     for (const item of record.json) {
       const key = item.url.replace(/[0-9a-f-]{20,}/g, ':id');
