@@ -1,5 +1,9 @@
-/** Shapes of the chains API as the browser sees them (the contract in the chains plan) and its calls. */
-import { requestJson, type ApiResult } from '@/components/forms/api';
+/**
+ * Shapes of the chains API as the browser sees them. The chains pages call the API through the
+ * query hooks of ./queries; `chainsApi` below remains only for the runs dialogs, which move onto
+ * those hooks with the runs pages' own rework.
+ */
+import { requestJson, type ApiResult } from '@/components/query/fetch';
 import type { ChainChange } from '@/lib/chain-diff';
 
 export interface ChainPermissions {
@@ -46,6 +50,7 @@ export interface ChainList {
 
 const base = (id: string) => `/api/chains/${encodeURIComponent(id)}`;
 
+/** @deprecated in the chains pages: use the hooks of ./queries. */
 export const chainsApi = {
   list: (query: { q?: string; page?: number; pageSize?: number; owner?: string }) => {
     const params = new URLSearchParams();
