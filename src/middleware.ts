@@ -1,6 +1,7 @@
 /**
  * Request pipeline: prepare the database once, resolve the session for every request, then guard
- * pages (redirect to sign-in) and API routes (JSON 401/404/405, same-origin writes).
+ * pages (redirect to sign-in) and API routes (JSON 401/404/405, same-origin writes); large JSON
+ * answers leave compressed.
  */
 import { defineMiddleware, sequence } from 'astro:middleware';
 import { endpointAction, endpointActions, pageActions, permissionTable } from '@/lib/permissions';
@@ -8,6 +9,12 @@ import { serverReady } from '@/lib/server/startup';
 import { validateSessionCookie } from '@/lib/server/auth/session';
 import { ApiError, methodNotAllowed, notFound, unauthenticated } from '@/lib/server/api/errors';
 import { errorResponse } from '@/lib/server/api/respond';
+import { compressJson } from '@/lib/server/api/compress';
+
+const compression = defineMiddleware(async (context, next) => {
+  const response = await next();
+  return context.isPrerendered ? response : compressJson(context.request, response);
+});
 
 const ready = defineMiddleware(async (context, next) => {
   if (!context.isPrerendered) await serverReady();
@@ -71,4 +78,4 @@ const pageGuard = defineMiddleware((context, next) => {
   return context.redirect(target, 302);
 });
 
-export const onRequest = sequence(ready, session, apiGuard, pageGuard);
+export const onRequest = sequence(compression, ready, session, apiGuard, pageGuard);

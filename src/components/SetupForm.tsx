@@ -1,6 +1,6 @@
 import { useState, type SyntheticEvent } from 'react';
 import { Field, FormMessage } from './forms/Field';
-import { requestJson } from './forms/api';
+import { requestJson } from '@/components/query/fetch';
 import { MIN_PASSWORD, useFormFields } from './forms/useFormFields';
 import { buttonPrimary } from './ui';
 

@@ -1,6 +1,6 @@
 import { useEffect, useRef, useState, type SyntheticEvent } from 'react';
 import { Field, FormMessage } from './forms/Field';
-import { requestJson } from './forms/api';
+import { requestJson } from '@/components/query/fetch';
 import { buttonPrimary } from './ui';
 
 type FieldName = 'email' | 'password';

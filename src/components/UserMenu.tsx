@@ -1,4 +1,5 @@
 import { useEffect, useId, useRef, useState } from 'react';
+import { requestJson } from './query/fetch';
 import { ROLE_LABELS } from './roles';
 
 export interface UserMenuProps {
@@ -39,15 +40,14 @@ export default function UserMenu({ name, email, role }: UserMenuProps) {
   async function signOut() {
     setSigningOut(true);
     setProblem(null);
-    try {
-      const response = await fetch('/api/auth/sign-out', { method: 'POST', credentials: 'same-origin' });
-      // 401 means the session had already ended: the sign-in page is the right place either way.
-      if (!response.ok && response.status !== 401) throw new Error(`status ${response.status}`);
+    const result = await requestJson<null>('POST', '/api/auth/sign-out');
+    // 401 means the session had already ended: the sign-in page is the right place either way.
+    if (result.ok || result.status === 401) {
       window.location.assign('/sign-in');
-    } catch {
-      setSigningOut(false);
-      setProblem('Sign-out failed: the server did not answer. Try again.');
+      return;
     }
+    setSigningOut(false);
+    setProblem(result.status === 0 ? 'Sign-out failed: the server did not answer. Try again.' : `Sign-out failed: ${result.error.message}`);
   }
 
   return (

@@ -106,7 +106,30 @@ describe('create, get and list', () => {
     expect((await engineer.get('/api/chains?page=0')).body.error).toMatchObject({ code: 'invalid_field', field: 'page' });
     expect((await engineer.get('/api/chains?pageSize=1000')).body.error).toMatchObject({ field: 'pageSize' });
     expect((await engineer.get('/api/chains?owner=someone')).body.error).toMatchObject({ field: 'owner' });
-    expect((await engineer.get('/api/chains?sort=name')).body.error).toMatchObject({ code: 'unknown_field', field: 'sort' });
+    expect((await engineer.get('/api/chains?sort=owner')).body.error).toMatchObject({ code: 'invalid_field', field: 'sort' });
+    expect((await engineer.get('/api/chains?order=up')).body.error).toMatchObject({ code: 'invalid_field', field: 'order' });
+    expect((await engineer.get('/api/chains?colour=red')).body.error).toMatchObject({ code: 'unknown_field', field: 'colour' });
+  });
+
+  it('sorts by name either way (ignoring case), by revision count, and pages through a sorted list', async () => {
+    const words = { q: 'sorting', pageSize: '2' };
+    const ids: Record<string, string> = {};
+    for (const name of ['sorting Bravo', 'Sorting alpha', 'Sorting charlie']) ids[name] = await createChain(engineer, { name });
+    // Two more revisions for "Sorting alpha", one more for "sorting Bravo".
+    const document = downConversion();
+    for (const [name, count] of [['Sorting alpha', 2], ['sorting Bravo', 1]] as const) {
+      for (let k = 0; k < count; k++) expect((await engineer.post(`/api/chains/${ids[name]}/revisions`, { document: { ...document, name: `${name} ${k}` }, message: `edit ${k}` })).status).toBe(201);
+    }
+    const names = async (params: Record<string, string>) => {
+      const answer = await engineer.get(`/api/chains?${new URLSearchParams({ ...words, ...params })}`);
+      expect(answer.status, answer.text).toBe(200);
+      return answer.body.items.map((chain: { name: string }) => chain.name);
+    };
+    expect(await names({ sort: 'name', order: 'asc', page: '1' })).toEqual(['Sorting alpha', 'sorting Bravo']);
+    expect(await names({ sort: 'name', order: 'asc', page: '2' })).toEqual(['Sorting charlie']);
+    expect(await names({ sort: 'name', order: 'desc', page: '1' })).toEqual(['Sorting charlie', 'sorting Bravo']);
+    expect(await names({ sort: 'latestRevision', order: 'desc', page: '1' })).toEqual(['Sorting alpha', 'sorting Bravo']);
+    expect(await names({ sort: 'latestRevision', order: 'asc', page: '1' })).toEqual(['Sorting charlie', 'sorting Bravo']);
   });
 
   it('changes name, description and visibility, not the document', async () => {

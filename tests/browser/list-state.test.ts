@@ -1,5 +1,5 @@
 /**
- * The captures and runs lists keep their search, filters, sort and page in the URL, in Debian's
+ * The captures, runs and chains lists keep their search, filters, sort and page in the URL, in Debian's
  * chromium against the built server: a reload and Back from a detail page come back to the same
  * rows, Back steps through pages, and a hand-made bad link shows the default list.
  *
@@ -190,6 +190,58 @@ describe.skipIf(!hasChromium)('list state in the URL', { timeout: 180_000 }, () 
       expect(await table().getByLabel('Show').inputValue()).toBe('');
       expect(await page.getByRole('alert').count()).toBe(0);
       await page.waitForURL((url) => url.pathname === '/runs' && url.search === '');
+    });
+  });
+  describe('chains', () => {
+    // Names whose case differs, so the name sort is seen to ignore case.
+    const chainNames = Array.from({ length: 12 }, (_, i) => `${i % 2 ? 'listed' : 'Listed'} chain ${String(i + 1).padStart(2, '0')}`);
+    const table = () => page.getByTestId('chains-table');
+    async function settledNames(): Promise<string[]> {
+      await page.locator('[data-testid="chains-table"]:not([data-loading])').waitFor();
+      return page.locator('[data-testid="chains-table"] tbody tr[data-chain] td:first-child a').allTextContents();
+    }
+
+    beforeAll(async () => {
+      for (const name of chainNames) await createChain(engineer, { ...quickChain(), name });
+    });
+
+    it('puts search, sort, page size and page in the URL, and a reload shows the same rows', async () => {
+      await page.goto('/chains');
+      await hydrated();
+      await table().getByLabel('Search chains').pressSequentially('listed chain');
+      await page.waitForURL((url) => url.searchParams.get('q') === 'listed chain');
+      await table().getByRole('button', { name: /^Name/ }).click();
+      await page.waitForURL((url) => url.searchParams.get('sort') !== null && url.searchParams.get('sort')!.endsWith('name'));
+      if (query().sort !== 'name') {
+        await table().getByRole('button', { name: /^Name/ }).click();
+        await page.waitForURL((url) => url.searchParams.get('sort') === 'name');
+      }
+      await page.getByRole('navigation', { name: 'Pages of chains' }).getByLabel('Per page').selectOption('10');
+      await page.waitForURL((url) => url.searchParams.get('per_page') === '10');
+      expect(await settledNames()).toEqual(chainNames.slice(0, 10));
+      await page.getByRole('navigation', { name: 'Pages of chains' }).getByRole('button', { name: 'Next' }).click();
+      await page.waitForURL((url) => url.searchParams.get('page') === '2');
+      await expect.poll(settledNames).toEqual(chainNames.slice(10));
+
+      await page.reload();
+      await hydrated();
+      expect(query()).toEqual({ q: 'listed chain', sort: 'name', per_page: '10', page: '2' });
+      expect(await settledNames()).toEqual(chainNames.slice(10));
+      await shoot('chains-list');
+    });
+
+    it('steps back to the first page with Back', async () => {
+      await page.goBack();
+      await page.waitForURL((url) => url.searchParams.get('page') === null);
+      await expect.poll(settledNames).toEqual(chainNames.slice(0, 10));
+    });
+
+    it('shows the default list for a hand-made bad link', async () => {
+      await page.goto('/chains?sort=colour&page=-3&per_page=7');
+      await hydrated();
+      expect(await page.getByRole('alert').count()).toBe(0);
+      // Newest change first: the chain made last leads.
+      expect((await settledNames())[0]).toBe(chainNames.at(-1));
     });
   });
 });

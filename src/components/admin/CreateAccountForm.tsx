@@ -1,7 +1,7 @@
 import { useState, type SyntheticEvent } from 'react';
 import type { PresentedAccount } from '@/lib/server/presenters/user';
 import { Field, FormMessage } from '../forms/Field';
-import { requestJson } from '../forms/api';
+import { requestJson } from '@/components/query/fetch';
 import { ROLE_LABELS } from '../roles';
 import { buttonPrimary, input as inputClass, label as labelClass } from '../ui';
 import { MIN_PASSWORD_LENGTH as MIN_PASSWORD } from '@/lib/password-rules';

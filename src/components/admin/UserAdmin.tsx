@@ -1,7 +1,7 @@
 import { useEffect, useState } from 'react';
 import type { PresentedAccount } from '@/lib/server/presenters/user';
 import { FormMessage } from '../forms/Field';
-import { requestJson } from '../forms/api';
+import { requestJson } from '@/components/query/fetch';
 import { ROLE_LABELS } from '../roles';
 import { CreateAccountForm } from './CreateAccountForm';
 import { UsersTable } from './UsersTable';

@@ -1,5 +1,5 @@
 import { useMemo, useState } from 'react';
-import type { ApiResult } from '../forms/api';
+import type { ApiResult } from '@/components/query/fetch';
 import { AnnotationEditor, type SaveOutcome } from './AnnotationEditor';
 import { AnnotationsList } from './AnnotationsList';
 import { ConfirmDialog } from './ConfirmDialog';

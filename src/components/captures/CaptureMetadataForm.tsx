@@ -2,7 +2,9 @@ import { useEffect, useState } from 'react';
 import { Field, FormMessage } from '../forms/Field';
 import { buttonPrimary, input, label as labelClass } from '../ui';
 import { formatQuantity, parseQuantity } from '@/lib/units';
-import { updateCapture } from './api';
+import { failureOf } from '@/components/query/fetch';
+import { withQueryClient } from '../table/withQueryClient';
+import { useUpdateCapture } from './queries';
 import type { Capture } from './types';
 
 type Editable = Pick<Capture, 'id' | 'name' | 'notes' | 'tags' | 'visibility' | 'centerFrequency' | 'owner' | 'permissions'>;
@@ -26,7 +28,8 @@ function valuesOf(capture: Editable) {
  * The description of a capture (name, notes, tags, visibility, centre frequency): a form for the
  * owner or an admin, saved with PATCH; read-only for everyone else, saying who may change it.
  */
-export default function CaptureMetadataForm({ capture }: CaptureMetadataFormProps) {
+function CaptureMetadataForm({ capture }: CaptureMetadataFormProps) {
+  const update = useUpdateCapture();
   const [values, setValues] = useState(() => valuesOf(capture));
   const [saved, setSaved] = useState(() => valuesOf(capture));
   const [errors, setErrors] = useState<Partial<Record<FieldName, string>>>({});
@@ -50,13 +53,14 @@ export default function CaptureMetadataForm({ capture }: CaptureMetadataFormProp
     setErrors(found);
     if (Object.keys(found).length > 0) return;
     setBusy(true);
-    const result = await updateCapture(capture.id, {
+    const changes = {
       name: values.name.trim(),
       notes: values.notes,
       tags: values.tags.split(',').map((t) => t.trim()).filter(Boolean),
       visibility: values.visibility,
       centerFrequency: centre && centre.ok ? centre.value : null,
-    });
+    };
+    const result = await update.mutateAsync({ id: capture.id, changes }).then((data) => ({ ok: true as const, data }), failureOf);
     setBusy(false);
     if (!result.ok) {
       const field = result.error.field as FieldName | undefined;
@@ -138,3 +142,5 @@ function ReadOnly({ capture }: { capture: Editable }) {
     </div>
   );
 }
+
+export default withQueryClient(CaptureMetadataForm, 0);

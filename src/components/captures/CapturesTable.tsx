@@ -7,7 +7,8 @@ import { TableNotice } from '../table/TableNotice';
 import { useServerTable } from '../table/useServerTable';
 import { useUrlState } from '../table/useUrlState';
 import { withQueryClient } from '../table/withQueryClient';
-import { bulkDeleteCaptures, CAPTURES_CHANGED, deleteCapture, fetchCaptureList } from './api';
+import { CAPTURES_CHANGED } from './api';
+import { fetchCaptureList, useBulkDeleteCaptures, useDeleteCapture } from './queries';
 import { captureColumns } from './capture-columns';
 import { CaptureFilters } from './CaptureFilters';
 import { ConfirmDialog } from './ConfirmDialog';
@@ -34,6 +35,8 @@ function CapturesTable({ initialState, initialList }: CapturesTableProps) {
   const [deleting, setDeleting] = useState(false);
   const [deleteError, setDeleteError] = useState<string | null>(null);
   const [notice, setNotice] = useState<string | null>(null);
+  const removeOne = useDeleteCapture();
+  const removeMany = useBulkDeleteCaptures();
 
   // Uploads and syntheses in other islands announce new captures.
   useEffect(() => {
@@ -76,21 +79,24 @@ function CapturesTable({ initialState, initialList }: CapturesTableProps) {
     if (!toDelete) return;
     setDeleting(true);
     setDeleteError(null);
-    if (toDelete.length === 1) {
-      const result = await deleteCapture(toDelete[0].id);
+    try {
+      if (toDelete.length === 1) {
+        await removeOne.mutateAsync(toDelete[0].id);
+        setNotice(`Deleted "${toDelete[0].name}".`);
+      } else {
+        const result = await removeMany.mutateAsync(toDelete.map((c) => c.id));
+        const refused = result.refused.length;
+        setNotice(`Deleted ${result.deleted.length} ${result.deleted.length === 1 ? 'capture' : 'captures'}${refused ? `; ${refused} refused (not yours, or already gone)` : ''}.`);
+      }
+    } catch (failure) {
+      setDeleteError((failure as Error).message);
+      return;
+    } finally {
       setDeleting(false);
-      if (!result.ok) return setDeleteError(result.error.message);
-      setNotice(`Deleted "${toDelete[0].name}".`);
-    } else {
-      const result = await bulkDeleteCaptures(toDelete.map((c) => c.id));
-      setDeleting(false);
-      if (!result.ok) return setDeleteError(result.error.message);
-      const refused = result.data.refused.length;
-      setNotice(`Deleted ${result.data.deleted.length} ${result.data.deleted.length === 1 ? 'capture' : 'captures'}${refused ? `; ${refused} refused (not yours, or already gone)` : ''}.`);
     }
+    // The mutations refresh the list.
     setToDelete(null);
     clearSelection();
-    await queryClient.invalidateQueries({ queryKey: ['captures'] });
   }
 
   return (

@@ -1,20 +1,25 @@
 import { useState } from 'react';
 import { buttonSecondary } from '../ui';
-import { deleteCapture } from './api';
+import { withQueryClient } from '../table/withQueryClient';
+import { useDeleteCapture } from './queries';
 import { ConfirmDialog } from './ConfirmDialog';
 
 /** Delete button of the capture page, with confirmation; goes back to the list afterwards. */
-export default function DeleteCaptureButton({ id, name }: { id: string; name: string }) {
+function DeleteCaptureButton({ id, name }: { id: string; name: string }) {
+  const remove = useDeleteCapture();
   const [open, setOpen] = useState(false);
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<string | null>(null);
   async function confirm() {
     setBusy(true);
     setError(null);
-    const result = await deleteCapture(id);
-    setBusy(false);
-    if (!result.ok) return setError(result.error.message);
-    window.location.assign('/captures');
+    try {
+      await remove.mutateAsync(id);
+      window.location.assign('/captures');
+    } catch (failure) {
+      setBusy(false);
+      setError((failure as Error).message);
+    }
   }
   return (
     <>
@@ -29,3 +34,5 @@ export default function DeleteCaptureButton({ id, name }: { id: string; name: st
     </>
   );
 }
+
+export default withQueryClient(DeleteCaptureButton, 0);

@@ -1,3 +1,4 @@
+import { requestJson } from '@/components/query/fetch';
 import { useEffect, useMemo, useState } from 'react';
 import { FormProvider, useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
@@ -210,20 +211,10 @@ type SynthOutcome = { kind: 'created'; capture: Capture } | { kind: 'duplicate';
 
 /** POST /api/synth; a 409 carries the identical capture already stored beside the error. */
 async function postSynth(body: unknown): Promise<SynthOutcome> {
-  let response: Response;
-  try {
-    response = await fetch('/api/synth', { method: 'POST', credentials: 'same-origin', headers: { 'content-type': 'application/json', accept: 'application/json' }, body: JSON.stringify(body) });
-  } catch {
-    return { kind: 'refused', message: 'The server could not be reached. Check the connection and try again.' };
-  }
-  let parsed: { capture?: Capture } & Partial<Capture> = {};
-  try {
-    parsed = await response.json();
-  } catch {
-    // Not JSON: answered below from the status.
-  }
-  if (response.ok && parsed.id) return { kind: 'created', capture: parsed as Capture };
-  if (response.status === 409 && parsed.capture) return { kind: 'duplicate', capture: parsed.capture };
-  const error = apiErrorOf(parsed);
-  return { kind: 'refused', message: error?.message ?? `The server answered ${response.status} ${response.statusText}.`, field: error?.field };
+  const result = await requestJson<Capture>('POST', '/api/synth', body);
+  if (result.ok) return { kind: 'created', capture: result.data };
+  const duplicate = (result.body as { capture?: Capture; error?: { capture?: Capture } } | undefined);
+  const existing = duplicate?.capture ?? duplicate?.error?.capture;
+  if (result.status === 409 && existing) return { kind: 'duplicate', capture: existing };
+  return { kind: 'refused', message: result.error.message, field: result.error.field };
 }

@@ -2,18 +2,16 @@
  * Plotly figures of the quick look: spectrum, spectrogram with annotation rectangles, and I and Q
  * against time as min/max bands. Frequencies are RF when the centre frequency is known.
  */
-import type { Data, Layout } from 'plotly.js-dist-min';
+import type { Layout } from 'plotly.js-dist-min';
 import { axisScale, axisTitle, scaled } from '../plots/axes';
+import { channelNames, columnTimes, minMaxTraces, plotLevels, spectrogramTrace, type Figure } from '../plots/figures';
 import type { PlotTheme } from '../plots/plot-theme';
 import type { QuickLookResult } from './quicklook-analysis';
 import type { SpectrogramAxes } from './annotation-selection';
 import type { Annotation } from './types';
 import type { SampleType } from '@/dsp/types';
 
-export interface Figure {
-  data: Data[];
-  layout: Partial<Layout>;
-}
+export type { Figure };
 
 /** Frequency axis of the quick look: RF when the centre is known, else relative to the capture's 0 Hz. */
 function frequencyAxis(result: QuickLookResult, centerFrequency: number | null) {
@@ -35,7 +33,7 @@ export function spectrumFigure(result: QuickLookResult, centerFrequency: number 
         mode: 'lines',
         name: 'Welch PSD',
         x: scaled(spectrum.frequencies, axis.scale, axis.offset),
-        y: spectrum.levels,
+        y: plotLevels(spectrum.levels),
         line: { color: theme.accent, width: 1.25 },
         hovertemplate: `%{x:.6~f} ${axis.scale.unit}<br>%{y:.1f} ${spectrum.unit}<extra></extra>`,
       },
@@ -46,14 +44,6 @@ export function spectrumFigure(result: QuickLookResult, centerFrequency: number 
       yaxis: { title: { text: `Level (${spectrum.unit})` }, zeroline: false },
     },
   };
-}
-
-/** Level below which a fraction `p` of the spectrogram's pixels lie (for the colour scale's floor). */
-function percentile(levels: number[][], p: number): number {
-  const all = levels.flat().filter((v) => v > -299);
-  if (all.length === 0) return -300;
-  all.sort((a, b) => a - b);
-  return all[Math.min(all.length - 1, Math.floor(p * all.length))];
 }
 
 /** Units of the spectrogram's axes, so a box dragged on it reads back in Hz and seconds. */
@@ -101,22 +91,16 @@ export function spectrogramFigure(result: QuickLookResult, centerFrequency: numb
   }
   return {
     data: [
-      {
-        type: 'heatmap',
+      spectrogramTrace({
         x,
         y: scaled(spectrogram.times, timeScale),
-        z: spectrogram.levels,
-        colorscale: 'Viridis',
-        zmin: percentile(spectrogram.levels, 0.05),
-        zmax: Math.max(...spectrogram.levels.map((row) => Math.max(...row))),
-        colorbar: {
-          title: { text: spectrogram.unit, side: 'right', font: { size: 11, color: theme.muted } },
-          thickness: 10,
-          outlinewidth: 0,
-          tickfont: { family: '"JetBrains Mono Variable", ui-monospace, monospace', size: 10, color: theme.muted },
-        },
-        hovertemplate: `%{x:.6~f} ${axis.scale.unit}<br>%{y:.4~f} ${timeScale.unit}<br>%{z:.1f} ${spectrogram.unit}<extra></extra>`,
-      },
+        levels: spectrogram.levels,
+        unit: spectrogram.unit,
+        frequencyScale: axis.scale,
+        timeScale,
+        theme,
+        frequencyDecimals: 6,
+      }),
     ],
     layout: {
       xaxis: { title: { text: axis.title }, showgrid: false, zeroline: false },
@@ -127,13 +111,6 @@ export function spectrogramFigure(result: QuickLookResult, centerFrequency: numb
   };
 }
 
-/** Channel names of the trace plot. */
-function channelNames(layout: SampleType): string[] {
-  if (layout === 'complex') return ['I', 'Q'];
-  if (layout === 'real-pair') return ['Channel 0 (I)', 'Channel 1 (Q)'];
-  return ['Signal'];
-}
-
 /**
  * I and Q (or the real signal) against time: a min/max band per pixel column, one panel per
  * channel on a shared time axis so neither channel hides the other.
@@ -142,22 +119,18 @@ export function traceFigure(result: QuickLookResult, layout: SampleType, theme: 
   const { trace } = result;
   const columns = trace.channels[0]?.min.length ?? 0;
   const timeScale = axisScale(0, result.samples / result.sampleRate, 's');
-  const times = new Array<number>(columns);
-  for (let c = 0; c < columns; c++) times[c] = (c * trace.samplesPerColumn) / trace.sampleRate / timeScale.divisor;
+  const times = columnTimes(columns, trace.samplesPerColumn, trace.sampleRate, timeScale);
   const names = channelNames(layout);
   const two = trace.channels.length === 2;
-  const data: Data[] = [];
-  trace.channels.forEach((channel, index) => {
-    const colour = theme.series[index % theme.series.length];
-    const fill = colour.replace(/, 1\)$/, ', 0.3)');
-    const axis = index === 0 ? 'y' : 'y2';
-    const hover = `${names[index]}: %{y:.4f} FS at %{x:.4~f} ${timeScale.unit}<extra></extra>`;
-    if (trace.samplesPerColumn === 1) {
-      data.push({ type: 'scatter', mode: 'lines', name: names[index], x: times, y: channel.max, yaxis: axis, line: { color: colour, width: 1 }, hovertemplate: hover });
-      return;
-    }
-    data.push({ type: 'scatter', mode: 'lines', name: names[index], showlegend: false, x: times, y: channel.min, yaxis: axis, line: { color: colour, width: 0.6 }, hovertemplate: hover });
-    data.push({ type: 'scatter', mode: 'lines', name: names[index], showlegend: false, x: times, y: channel.max, yaxis: axis, fill: 'tonexty', fillcolor: fill, line: { color: colour, width: 0.6 }, hovertemplate: hover });
+  const data = minMaxTraces({
+    times,
+    channels: trace.channels,
+    samplesPerColumn: trace.samplesPerColumn,
+    names,
+    timeScale,
+    theme,
+    fillOpacity: 0.3,
+    axes: trace.channels.map((_, index) => (index === 0 ? 'y' : 'y2')),
   });
   const yTitle = (index: number) => `${names[index]} (FS)`;
   return {

@@ -3,7 +3,7 @@
  * enough to hash in the browser), the transfer, and reading the capture the server made of it.
  */
 import { apiErrorOf } from '@/contracts/errors';
-import { requestJson, type ApiError } from '../forms/api';
+import { requestJson, type ApiError } from '@/components/query/fetch';
 import type { PickedUpload } from './upload-files';
 import type { UploadDescription } from './upload-form';
 import type { Capture } from './types';
@@ -70,17 +70,14 @@ export type Finished = { kind: 'created'; capture: Capture } | { kind: 'duplicat
 
 /** Reads the capture the server made of a finished upload (a 409 carries the existing capture beside the error). */
 export async function finishedCapture(uploadId: string): Promise<Finished> {
-  let response: Response;
-  try {
-    response = await fetch(`/api/uploads/${encodeURIComponent(uploadId)}/capture`, { credentials: 'same-origin', headers: { accept: 'application/json' } });
-  } catch {
+  const result = await requestJson<Capture>('GET', `/api/uploads/${encodeURIComponent(uploadId)}/capture`);
+  if (result.ok) return { kind: 'created', capture: result.data };
+  if (result.status === 0) {
     return { kind: 'refused', error: { code: 'network', message: 'The server could not be reached to confirm the upload. Reload the captures list to see whether it was stored.', field: null } };
   }
-  const text = await response.text();
-  if (response.ok) return { kind: 'created', capture: JSON.parse(text) as Capture };
-  const error = errorOfBody(text);
-  if (response.status === 409 && error?.capture) return { kind: 'duplicate', capture: error.capture };
-  return { kind: 'refused', error: error ?? { code: `http_${response.status}`, message: `The server answered ${response.status} ${response.statusText}.`, field: null } };
+  const error = errorOfBody(JSON.stringify(result.body ?? {}));
+  if (result.status === 409 && error?.capture) return { kind: 'duplicate', capture: error.capture };
+  return { kind: 'refused', error: result.error };
 }
 
 /** The API error inside a tus failure's response body, if it has one. */

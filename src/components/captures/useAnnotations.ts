@@ -1,6 +1,6 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { ApiResult } from '../forms/api';
-import { fetchCapture, updateCapture } from './api';
+import { apiJson, failureOf, type ApiResult } from '@/components/query/fetch';
+import { fetchCapture } from './queries';
 import type { Capture } from './types';
 
 /** Query key of a capture's SigMF annotations. */
@@ -22,12 +22,19 @@ export function useAnnotations(captureId: string, initial: Record<string, unknow
     staleTime: 60_000,
   });
   const mutation = useMutation({
-    mutationFn: (list: Record<string, unknown>[]): Promise<ApiResult<Capture>> => updateCapture(captureId, { annotations: list }),
-    onSuccess: (result) => {
-      if (!result.ok) return;
-      queryClient.setQueryData(key, result.data.annotations);
+    mutationFn: (list: Record<string, unknown>[]) => apiJson<Capture>('PATCH', `/api/captures/${encodeURIComponent(captureId)}`, { annotations: list }),
+    onSuccess: (capture) => {
+      queryClient.setQueryData(key, capture.annotations);
       void queryClient.invalidateQueries({ queryKey: key });
     },
   });
-  return { annotations: query.data, save: mutation.mutateAsync, saving: mutation.isPending };
+  // The annotation form places an API error beside its field: it takes the outcome as a result.
+  const save = async (list: Record<string, unknown>[]): Promise<ApiResult<Capture>> => {
+    try {
+      return { ok: true, status: 200, data: await mutation.mutateAsync(list) };
+    } catch (error) {
+      return failureOf(error);
+    }
+  };
+  return { annotations: query.data, save, saving: mutation.isPending };
 }

@@ -1,72 +1,106 @@
 /**
  * The chains a user can see (their own and the team's): name, owner, visibility, latest revision
- * and last change, with search, paging, fork, and for those who compose chains, new and import.
+ * and last change, with search, sort and paging kept in the URL, fork, and for those who compose
+ * chains, new and import.
  */
-import { useEffect, useRef, useState } from 'react';
-import { buttonPrimary, buttonSecondary, buttonSmall } from '@/components/ui';
-import { chainsApi, type Chain, type ChainList as ChainPage } from './api';
+import { useMemo, useRef, useState } from 'react';
+import { useMutation } from '@tanstack/react-query';
+import type { SortingState } from '@tanstack/react-table';
+import { buttonPrimary, buttonSecondary } from '@/components/ui';
+import { ServerTableView } from '../table/ServerTableView';
+import { TableNotice } from '../table/TableNotice';
+import { useServerTable } from '../table/useServerTable';
+import { useUrlState } from '../table/useUrlState';
+import { withQueryClient } from '../table/withQueryClient';
+import { fetchChainList, useCreateChain, useForkChain, type Chain, type ChainList as ChainPage } from './queries';
+import { chainColumns } from './chain-columns';
 import { readChainFile } from './import-chain';
-import { shortTime } from './RevisionsPanel';
+import { CHAIN_PAGE_SIZES, chainListCodec, chainListParams, type ChainListState } from './list-state';
 
-const PAGE_SIZE = 25;
+export interface ChainListProps {
+  mayCreate: boolean;
+  /** The list state the page's URL asked for (parsed on the server with the same codec). */
+  initialState: ChainListState;
+  /** The page of chains the server rendered for that state, shown before any request. */
+  initialList: ChainPage;
+}
 
-export default function ChainList({ mayCreate }: { mayCreate: boolean }) {
-  const [query, setQuery] = useState('');
-  const [page, setPage] = useState(1);
-  const [data, setData] = useState<ChainPage | null>(null);
-  const [error, setError] = useState<string | null>(null);
+function ChainList({ mayCreate, initialState, initialList }: ChainListProps) {
+  const urlState = useUrlState(chainListCodec, initialState);
+  const { state, settled, update } = urlState;
   const [notice, setNotice] = useState<{ tone: 'error' | 'ok'; text: string } | null>(null);
   const fileRef = useRef<HTMLInputElement>(null);
+  const open = (id: string) => (window.location.href = `/chains/${id}`);
+  const fork = useForkChain();
+  const create = useCreateChain();
+  const importFile = useMutation({
+    mutationFn: async (file: File) => {
+      const reading = readChainFile(await file.text(), file.name);
+      if (!reading.ok) throw new Error(reading.message);
+      try {
+        return await create.mutateAsync({ name: reading.name, visibility: 'private', document: reading.document });
+      } catch (error) {
+        throw new Error(`${file.name}: ${(error as Error).message}`);
+      }
+    },
+    onSuccess: (created) => open(created.id),
+    onError: (error) => setNotice({ tone: 'error', text: error.message }),
+  });
 
-  useEffect(() => {
-    let live = true;
-    const timer = setTimeout(() => {
-      void chainsApi.list({ q: query.trim(), page, pageSize: PAGE_SIZE }).then((r) => {
-        if (!live) return;
-        if (r.ok) {
-          setData(r.data);
-          setError(null);
-        } else setError(r.error.message);
-      });
-    }, 150);
-    return () => {
-      live = false;
-      clearTimeout(timer);
-    };
-  }, [query, page]);
+  const columns = useMemo(
+    () =>
+      chainColumns({
+        onFork: (chain: Chain) =>
+          fork.mutate({ id: chain.id }, { onSuccess: (created) => open(created.id), onError: (error) => setNotice({ tone: 'error', text: error.message }) }),
+      }),
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+    [],
+  );
+  const sorting: SortingState = [{ id: state.sort, desc: state.desc }];
+  const { query, params, view } = useServerTable({
+    queryKey: 'chains',
+    urlState,
+    initialState,
+    initialList,
+    toParams: chainListParams,
+    fetchList: fetchChainList,
+    rowsOf: (page: ChainPage) => page.items,
+    columns,
+    getRowId: (chain) => chain.id,
+    sorting: {
+      state: sorting,
+      onChange: (next) => {
+        const first = next[0];
+        if (first) update((current) => ({ ...current, sort: first.id as ChainListState['sort'], desc: first.desc, page: 1 }), 'push');
+      },
+    },
+    canSelect: () => false,
+  });
 
-  const fork = async (chain: Chain) => {
-    const r = await chainsApi.fork(chain.id);
-    if (r.ok) window.location.href = `/chains/${r.data.id}`;
-    else setNotice({ tone: 'error', text: r.error.message });
-  };
-
-  const importFile = async (file: File) => {
-    const reading = readChainFile(await file.text(), file.name);
-    if (!reading.ok) return setNotice({ tone: 'error', text: reading.message });
-    const r = await chainsApi.create({ name: reading.name, visibility: 'private', document: reading.document });
-    if (r.ok) window.location.href = `/chains/${r.data.id}`;
-    else setNotice({ tone: 'error', text: `${file.name}: ${r.error.message}` });
-  };
-
-  const pages = data ? Math.max(1, Math.ceil(data.total / data.pageSize)) : 1;
+  const searched = settled.q.trim();
   return (
-    <div data-ready>
-      <div className="mb-3 flex flex-wrap items-center gap-2">
+    <section aria-label="Chains" className="space-y-3" data-ready data-testid="chains-table" data-loading={query.isFetching || undefined}>
+      <div className="flex flex-wrap items-center gap-2">
         <input
           type="search"
-          value={query}
-          onChange={(e) => {
-            setQuery(e.target.value);
-            setPage(1);
-          }}
+          value={state.q}
+          onChange={(e) => update((current) => ({ ...current, q: e.target.value, page: 1 }), 'replace')}
           placeholder="Search by name or description"
           aria-label="Search chains"
           className="w-full max-w-sm rounded-md border border-line bg-surface px-3 py-1.5 text-sm"
         />
+        <label className="flex items-center gap-1.5 text-sm text-muted">
+          <input
+            type="checkbox"
+            className="h-4 w-4 accent-[rgb(var(--q-accent))]"
+            checked={state.owner === 'me'}
+            onChange={(e) => update((current) => ({ ...current, owner: e.target.checked ? 'me' : '', page: 1 }), 'push')}
+          />
+          Mine only
+        </label>
         {mayCreate && (
           <div className="ml-auto flex gap-2">
-            <button type="button" className={buttonSecondary + ' py-1.5'} onClick={() => fileRef.current?.click()}>
+            <button type="button" className={buttonSecondary + ' py-1.5'} onClick={() => fileRef.current?.click()} disabled={importFile.isPending}>
               Import JSON file…
             </button>
             <input
@@ -78,7 +112,7 @@ export default function ChainList({ mayCreate }: { mayCreate: boolean }) {
               data-testid="import-file"
               onChange={(e) => {
                 const file = e.target.files?.[0];
-                if (file) void importFile(file);
+                if (file) importFile.mutate(file);
                 e.target.value = '';
               }}
             />
@@ -89,79 +123,30 @@ export default function ChainList({ mayCreate }: { mayCreate: boolean }) {
         )}
       </div>
       {notice && (
-        <p role={notice.tone === 'error' ? 'alert' : 'status'} className={'mb-3 rounded-md border px-3 py-2 text-sm ' + (notice.tone === 'error' ? 'border-danger/40 bg-danger/10 text-danger' : 'border-ok/40 bg-ok/10 text-ok')}>
+        <TableNotice tone={notice.tone} onDismiss={() => setNotice(null)}>
           {notice.text}
-        </p>
+        </TableNotice>
       )}
-      {error && <p className="text-sm text-danger">{error}</p>}
-      <div className="overflow-x-auto rounded-lg border border-line bg-panel">
-        <table className="w-full text-sm">
-          <thead className="border-b border-line bg-surface text-left text-xs uppercase tracking-wide text-muted">
-            <tr>
-              <th className="px-3 py-2 font-medium">Name</th>
-              <th className="px-3 py-2 font-medium">Owner</th>
-              <th className="px-3 py-2 font-medium">Visibility</th>
-              <th className="px-3 py-2 text-right font-medium">Revision</th>
-              <th className="px-3 py-2 font-medium">Updated</th>
-              <th className="px-3 py-2">
-                <span className="sr-only">Actions</span>
-              </th>
-            </tr>
-          </thead>
-          <tbody>
-            {data?.items.map((chain) => (
-              <tr key={chain.id} className="border-b border-line/70 last:border-0 hover:bg-surface/60" data-chain={chain.id}>
-                <td className="px-3 py-2">
-                  <a href={`/chains/${chain.id}`} className="font-medium hover:text-accent hover:underline">
-                    {chain.name}
-                  </a>
-                  {chain.description && <span className="block max-w-xl truncate text-xs text-muted">{chain.description}</span>}
-                </td>
-                <td className="px-3 py-2 text-muted">{chain.owner.name}</td>
-                <td className="px-3 py-2">
-                  <span className={'rounded px-1.5 py-px text-xs ' + (chain.visibility === 'team' ? 'bg-accent/10 text-accent' : 'bg-muted/15 text-muted')}>{chain.visibility}</span>
-                </td>
-                <td className="px-3 py-2 text-right font-mono">r{chain.latestRevision}</td>
-                <td className="whitespace-nowrap px-3 py-2 text-muted">{shortTime(chain.updatedAt)}</td>
-                <td className="px-3 py-2 text-right">
-                  {chain.permissions.fork && (
-                    <button type="button" className={buttonSmall} onClick={() => void fork(chain)} aria-label={`Fork ${chain.name}`}>
-                      Fork
-                    </button>
-                  )}
-                </td>
-              </tr>
-            ))}
-            {data && data.items.length === 0 && (
-              <tr>
-                <td colSpan={6} className="px-3 py-6 text-center text-muted">
-                  {query ? `No chain matches “${query}”.` : mayCreate ? 'No chains yet: start one with New chain, or import a JSON file.' : 'No chain is shared with the team yet.'}
-                </td>
-              </tr>
-            )}
-            {!data && !error && (
-              <tr>
-                <td colSpan={6} className="px-3 py-6 text-center text-muted">
-                  Loading…
-                </td>
-              </tr>
-            )}
-          </tbody>
-        </table>
-      </div>
-      {data && pages > 1 && (
-        <div className="mt-2 flex items-center justify-end gap-2 text-sm">
-          <button type="button" className={buttonSmall} disabled={page <= 1} onClick={() => setPage((p) => p - 1)}>
-            Previous
-          </button>
-          <span className="text-muted">
-            Page {page} of {pages}
-          </span>
-          <button type="button" className={buttonSmall} disabled={page >= pages} onClick={() => setPage((p) => p + 1)}>
-            Next
-          </button>
-        </div>
-      )}
-    </div>
+      <ServerTableView
+        {...view}
+        noun="chains"
+        caption={`Chains, sorted by ${params.sort} ${params.order === 'asc' ? 'ascending' : 'descending'}`}
+        empty={
+          searched
+            ? `No chain matches “${searched}”.`
+            : settled.owner === 'me'
+              ? 'You have no chains of your own yet.'
+              : mayCreate
+                ? 'No chains yet: start one with New chain, or import a JSON file.'
+                : 'No chain is shared with the team yet.'
+        }
+        pageSizes={CHAIN_PAGE_SIZES}
+        cellPadding="px-3 py-2"
+        cellAlign="middle"
+        rowAttributes={(chain) => ({ 'data-chain': chain.id })}
+      />
+    </section>
   );
 }
+
+export default withQueryClient(ChainList, 10_000);

@@ -3,9 +3,12 @@ import { useState } from 'react';
 import { Field, FormMessage } from '@/components/forms/Field';
 import { buttonPrimary, label as labelClass, input as inputClass } from '@/components/ui';
 import { emptyDocument } from './draft';
-import { chainsApi } from './api';
+import { withQueryClient } from '@/components/table/withQueryClient';
+import { ApiRequestError } from '@/components/query/fetch';
+import { useCreateChain } from './queries';
 
-export default function NewChainForm() {
+function NewChainForm() {
+  const create = useCreateChain();
   const [name, setName] = useState('');
   const [visibility, setVisibility] = useState<'private' | 'team'>('private');
   const [description, setDescription] = useState('');
@@ -16,13 +19,13 @@ export default function NewChainForm() {
     event.preventDefault();
     if (!name.trim()) return setError({ field: 'name', message: 'Name: enter a name for the chain.' });
     setBusy(true);
-    const r = await chainsApi.create({ name: name.trim(), visibility, document: emptyDocument(name.trim()), ...(description.trim() ? { description: description.trim() } : {}) });
-    if (r.ok) {
-      window.location.href = `/chains/${r.data.id}`;
-      return;
+    try {
+      const created = await create.mutateAsync({ name: name.trim(), visibility, document: emptyDocument(name.trim()), ...(description.trim() ? { description: description.trim() } : {}) });
+      window.location.href = `/chains/${created.id}`;
+    } catch (failure) {
+      setBusy(false);
+      setError({ field: failure instanceof ApiRequestError ? failure.field : null, message: (failure as Error).message });
     }
-    setBusy(false);
-    setError(r.error);
   };
 
   return (
@@ -52,3 +55,5 @@ export default function NewChainForm() {
     </form>
   );
 }
+
+export default withQueryClient(NewChainForm, 0);

@@ -5,11 +5,13 @@
  * of a capture in workers, and saves revisions.
  */
 import { lazy, Suspense, useCallback, useEffect, useMemo, useState } from 'react';
+import { useQuery, useQueryClient } from '@tanstack/react-query';
 import type { Capture, CaptureList } from '@/components/captures/types';
-import { requestJson } from '@/components/forms/api';
+import { apiJson, ApiRequestError } from '@/components/query/fetch';
+import { withQueryClient } from '@/components/table/withQueryClient';
 import type { StreamFormat } from '@/dsp/types';
 import { sameJsonValue } from '@/lib/chain-diff';
-import { chainsApi, type ChainWithRevision } from './api';
+import { fetchChain, fetchRevision, useForkChain, useRestoreRevision, useSaveRevision, useUpdateChain, type ChainWithRevision } from './queries';
 import { analyseDraft } from './analysis';
 import Cells from './Cells';
 import { addStage, duplicateStage, emptyDocument, moveStage, removeStage, setStageParams, toDraft, updateStage, type DraftDocument } from './draft';
@@ -31,7 +33,8 @@ const JsonView = lazy(() => import('./JsonView'));
 
 const captureKey = (chainId: string) => `quadrille.preview-capture.${chainId}`;
 
-export default function Notebook({ chainId, user }: NotebookProps) {
+function Notebook({ chainId, user }: NotebookProps) {
+  const client = useQueryClient();
   const [chain, setChain] = useState<ChainWithRevision | null>(null);
   const [loadError, setLoadError] = useState<string | null>(null);
   const [doc, setDoc] = useState<DraftDocument>(emptyDocument());
@@ -39,28 +42,39 @@ export default function Notebook({ chainId, user }: NotebookProps) {
   const [viewing, setViewing] = useState<{ revision: number; doc: DraftDocument } | null>(null);
   const [editedAt, setEditedAt] = useState(0);
   const [mode, setMode] = useState<ViewMode>(() => (window.innerWidth >= 2200 ? 'split' : 'cells'));
-  const [captures, setCaptures] = useState<Capture[] | null>(null);
-  const [capturesError, setCapturesError] = useState<string>();
   const [captureId, setCaptureId] = useState<string | null>(null);
   const [manualInput, setManualInput] = useState<StreamFormat>({ sampleRate: 4e6, sampleType: 'complex' });
-  const [refreshKey, setRefreshKey] = useState(0);
   const [saving, setSaving] = useState(false);
   const [message, setMessage] = useState<{ tone: 'error' | 'ok'; text: string } | null>(null);
   const [jsonProblems, setJsonProblems] = useState<{ count: number; first?: string }>({ count: 0 });
 
+  const saveRevision = useSaveRevision();
+  const restoreRevision = useRestoreRevision();
+  const forkChain = useForkChain();
+  const updateChain = useUpdateChain();
+  // The chain is read once into the editor's own state (the document being edited), through the
+  // query cache; the capture list for the preview is an ordinary query.
   const loadChain = useCallback(async () => {
-    const r = await chainsApi.get(chainId);
-    if (!r.ok) {
-      setLoadError(r.status === 404 ? 'There is no such chain, or it is private to someone else.' : r.error.message);
+    let loaded: ChainWithRevision;
+    try {
+      loaded = await fetchChain(client, chainId);
+    } catch (failure) {
+      setLoadError(failure instanceof ApiRequestError && failure.status === 404 ? 'There is no such chain, or it is private to someone else.' : (failure as Error).message);
       return;
     }
-    const draft = toDraft(r.data.revision.document) ?? emptyDocument(r.data.name);
-    setChain(r.data);
+    const draft = toDraft(loaded.revision.document) ?? emptyDocument(loaded.name);
+    setChain(loaded);
     setDoc(draft);
     setSaved(draft);
     setViewing(null);
-    document.title = `${r.data.name} · Chains · Quadrille`;
-  }, [chainId]);
+    document.title = `${loaded.name} · Chains · Quadrille`;
+  }, [chainId, client]);
+  const capturesQuery = useQuery({
+    queryKey: ['captures', 'for-preview'],
+    queryFn: () => apiJson<CaptureList>('GET', '/api/captures?pageSize=100&sort=name&order=asc').then((list) => list.items),
+  });
+  const captures: Capture[] | null = capturesQuery.data ?? (capturesQuery.isError ? [] : null);
+  const capturesError = capturesQuery.isError ? `Captures could not be listed: ${capturesQuery.error.message}` : undefined;
 
   useEffect(() => {
     // Plotly is large: compile it while the page settles, not in the middle of someone's typing.
@@ -70,13 +84,6 @@ export default function Notebook({ chainId, user }: NotebookProps) {
 
   useEffect(() => {
     void loadChain();
-    void requestJson<CaptureList>('GET', '/api/captures?pageSize=100&sort=name&order=asc').then((r) => {
-      if (r.ok) setCaptures(r.data.items);
-      else {
-        setCaptures([]);
-        setCapturesError(`Captures could not be listed: ${r.error.message}`);
-      }
-    });
   }, [loadChain]);
 
   // Pick the capture used last with this chain, else the first one the whole chain can take without errors.
@@ -141,17 +148,18 @@ export default function Notebook({ chainId, user }: NotebookProps) {
     async (text: string) => {
       if (!chain || saveBlocked) return;
       setSaving(true);
-      const r = await chainsApi.save(chain.id, { ...doc, name: chain.name }, text);
-      setSaving(false);
-      if (!r.ok) {
-        setMessage({ tone: 'error', text: r.error.message });
-        return;
+      try {
+        const revision = await saveRevision.mutateAsync({ id: chain.id, document: { ...doc, name: chain.name }, message: text });
+        setChain({ ...chain, latestRevision: revision.revision, revision });
+        setSaved(doc);
+        setMessage({ tone: 'ok', text: `Saved as revision ${revision.revision}.` });
+      } catch (failure) {
+        setMessage({ tone: 'error', text: (failure as Error).message });
+      } finally {
+        setSaving(false);
       }
-      setChain({ ...chain, latestRevision: r.data.revision, revision: r.data });
-      setSaved(doc);
-      setRefreshKey((k) => k + 1);
-      setMessage({ tone: 'ok', text: `Saved as revision ${r.data.revision}.` });
     },
+    // eslint-disable-next-line react-hooks/exhaustive-deps
     [chain, doc, saveBlocked],
   );
 
@@ -175,32 +183,38 @@ export default function Notebook({ chainId, user }: NotebookProps) {
 
   const view = async (revision: number | null) => {
     if (revision === null) return setViewing(null);
-    const r = await chainsApi.revision(chainId, revision);
-    if (r.ok) setViewing({ revision, doc: toDraft(r.data.document) ?? emptyDocument() });
-    else setMessage({ tone: 'error', text: r.error.message });
+    try {
+      const found = await fetchRevision(client, chainId, revision);
+      setViewing({ revision, doc: toDraft(found.document) ?? emptyDocument() });
+    } catch (failure) {
+      setMessage({ tone: 'error', text: (failure as Error).message });
+    }
   };
 
   const restore = async () => {
     if (!viewing) return;
-    const r = await chainsApi.restore(chainId, viewing.revision, `Restored revision ${viewing.revision}`);
-    if (!r.ok) return setMessage({ tone: 'error', text: r.error.message });
-    await loadChain();
-    setRefreshKey((k) => k + 1);
-    setMessage({ tone: 'ok', text: `Revision ${viewing.revision} restored as revision ${r.data.revision}.` });
+    try {
+      const restored = await restoreRevision.mutateAsync({ id: chainId, revision: viewing.revision, message: `Restored revision ${viewing.revision}` });
+      await loadChain();
+      setMessage({ tone: 'ok', text: `Revision ${viewing.revision} restored as revision ${restored.revision}.` });
+    } catch (failure) {
+      setMessage({ tone: 'error', text: (failure as Error).message });
+    }
   };
 
   const fork = async () => {
-    const r = await chainsApi.fork(chainId);
-    if (r.ok) window.location.href = `/chains/${r.data.id}`;
-    else setMessage({ tone: 'error', text: r.error.message });
+    forkChain.mutate({ id: chainId }, { onSuccess: (created) => (window.location.href = `/chains/${created.id}`), onError: (failure) => setMessage({ tone: 'error', text: failure.message }) });
   };
 
   const patch = async (body: { name?: string; visibility?: 'private' | 'team' }) => {
     if (!chain) return;
-    const r = await chainsApi.update(chain.id, body);
-    if (!r.ok) return setMessage({ tone: 'error', text: r.error.message });
-    setChain({ ...chain, ...r.data, revision: chain.revision });
-    if (body.name) edit((d) => ({ ...d, name: body.name! }));
+    try {
+      const updated = await updateChain.mutateAsync({ id: chain.id, ...body });
+      setChain({ ...chain, ...updated, revision: chain.revision });
+      if (body.name) edit((d) => ({ ...d, name: body.name! }));
+    } catch (failure) {
+      setMessage({ tone: 'error', text: (failure as Error).message });
+    }
   };
 
   if (loadError) return <p className="rounded-md border border-danger/40 bg-danger/10 px-3 py-2 text-sm text-danger">{loadError}</p>;
@@ -278,7 +292,7 @@ export default function Notebook({ chainId, user }: NotebookProps) {
             blocked={capture ? blocked : undefined}
           />
           <IssueSummary errors={analysis.errorCount} warnings={analysis.warningCount} documentIssues={analysis.documentIssues.map((i) => i.message)} />
-          <RevisionsPanel chainId={chain.id} latest={chain.latestRevision} viewing={viewing?.revision ?? null} refreshKey={refreshKey} onView={(n) => void view(n)} />
+          <RevisionsPanel chainId={chain.id} latest={chain.latestRevision} viewing={viewing?.revision ?? null} onView={(n) => void view(n)} />
         </aside>
       </div>
     </div>
@@ -302,3 +316,6 @@ function IssueSummary({ errors, warnings, documentIssues }: { errors: number; wa
     </section>
   );
 }
+
+// Chain and revisions are read through the query cache; 30 s before a chain counts as stale.
+export default withQueryClient(Notebook, 30_000);

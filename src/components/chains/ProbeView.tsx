@@ -3,6 +3,8 @@ import { useMemo } from 'react';
 import type { Data, Layout } from 'plotly.js-dist-min';
 import Plot from '@/components/plots/Plot';
 import { axisScale, axisTitle, scaled } from '@/components/plots/axes';
+import { plotLevels, spectrogramTrace } from '@/components/plots/figures';
+import { usePlotTheme } from '@/components/plots/plot-theme';
 import { formatQuantity } from '@/lib/units';
 import type { PreviewProbe } from './preview-protocol';
 
@@ -21,7 +23,7 @@ function SpectrumPlot({ probe }: { probe: PreviewProbe }) {
   const figure = useMemo(() => {
     const f = spectrum.frequencies;
     const scale = axisScale(f[0], f[f.length - 1], 'Hz');
-    const data: Data[] = [{ x: scaled(f, scale), y: spectrum.levels, type: 'scatter', mode: 'lines', line: { width: 1 }, hovertemplate: `%{x:.5g} ${scale.unit}<br>%{y:.1f} ${spectrum.unit}<extra></extra>` }];
+    const data: Data[] = [{ x: scaled(f, scale), y: plotLevels(spectrum.levels), type: 'scatter', mode: 'lines', line: { width: 1 }, hovertemplate: `%{x:.5g} ${scale.unit}<br>%{y:.1f} ${spectrum.unit}<extra></extra>` }];
     const layout: Partial<Layout> = {
       showlegend: false,
       margin: { l: 56, r: 12, t: 8, b: 40 },
@@ -44,15 +46,16 @@ function SpectrumPlot({ probe }: { probe: PreviewProbe }) {
 
 function SpectrogramPlot({ probe }: { probe: PreviewProbe }) {
   const image = probe.spectrogram!;
+  const theme = usePlotTheme();
   const figure = useMemo(() => {
     const f = image.frequencies;
     const xs = axisScale(f[0] ?? 0, f[f.length - 1] ?? 1, 'Hz');
     const t = image.times;
     const ts = axisScale(0, t[t.length - 1] || 1e-3, 's');
-    const data: Data[] = [{ type: 'heatmap', x: scaled(f, xs), y: scaled(t, ts), z: image.levels, colorscale: 'Viridis', colorbar: { title: { text: image.unit }, thickness: 10 } } as Data];
+    const data: Data[] = [spectrogramTrace({ x: scaled(f, xs), y: scaled(t, ts), levels: image.levels, unit: image.unit, frequencyScale: xs, timeScale: ts, theme, frequencyDecimals: 5 })];
     const layout: Partial<Layout> = { margin: { l: 56, r: 12, t: 8, b: 40 }, xaxis: { title: { text: axisTitle('Frequency', xs) } }, yaxis: { title: { text: axisTitle('Time', ts) } } };
     return { data, layout };
-  }, [image]);
+  }, [image, theme]);
   return <Plot label={`Preview spectrogram at ${probe.stageId}`} data={figure.data} layout={figure.layout} height={280} testId={`probe-spectrogram-${probe.stageId}`} config={{ displayModeBar: 'hover' }} />;
 }
 

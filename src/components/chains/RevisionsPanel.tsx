@@ -3,16 +3,15 @@
  * it again as a new revision), and compare two at parameter level.
  */
 import { useEffect, useState } from 'react';
+import { useQueryClient } from '@tanstack/react-query';
 import type { ChainChange } from '@/lib/chain-diff';
 import { buttonSmall } from '@/components/ui';
-import { chainsApi, type RevisionSummary } from './api';
+import { fetchDiff, useRevisions } from './queries';
 
 interface RevisionsPanelProps {
   chainId: string;
   latest: number;
   viewing: number | null;
-  /** Changes whenever a revision was added, to reload the list. */
-  refreshKey: number;
   onView(revision: number | null): void;
 }
 
@@ -22,33 +21,30 @@ export function shortTime(iso: string): string {
   return date.toLocaleString('en-GB', { day: '2-digit', month: 'short', hour: '2-digit', minute: '2-digit' });
 }
 
-export default function RevisionsPanel({ chainId, latest, viewing, refreshKey, onView }: RevisionsPanelProps) {
-  const [items, setItems] = useState<RevisionSummary[] | null>(null);
-  const [error, setError] = useState<string | null>(null);
+export default function RevisionsPanel({ chainId, latest, viewing, onView }: RevisionsPanelProps) {
+  const client = useQueryClient();
+  // Saving and restoring invalidate the chain's queries, so the list follows on its own.
+  const revisions = useRevisions(chainId);
+  const items = revisions.data ? [...revisions.data].sort((a, b) => b.revision - a.revision) : null;
+  const error = revisions.error?.message ?? null;
   const [from, setFrom] = useState(Math.max(1, latest - 1));
   const [to, setTo] = useState(latest);
   const [changes, setChanges] = useState<ChainChange[] | null>(null);
   const [diffError, setDiffError] = useState<string | null>(null);
 
+  // A new latest revision moves the comparison to the newest pair.
   useEffect(() => {
-    let live = true;
-    void chainsApi.revisions(chainId).then((r) => {
-      if (!live) return;
-      if (r.ok) setItems([...r.data.items].sort((a, b) => b.revision - a.revision));
-      else setError(r.error.message);
-    });
     setFrom(Math.max(1, latest - 1));
     setTo(latest);
-    return () => {
-      live = false;
-    };
-  }, [chainId, refreshKey, latest]);
+  }, [chainId, latest]);
 
   const compare = async () => {
     setDiffError(null);
-    const r = await chainsApi.diff(chainId, from, to);
-    if (r.ok) setChanges(r.data.changes);
-    else setDiffError(r.error.message);
+    try {
+      setChanges(await fetchDiff(client, chainId, from, to));
+    } catch (failure) {
+      setDiffError((failure as Error).message);
+    }
   };
 
   return (

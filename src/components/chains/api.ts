@@ -1,5 +1,9 @@
-/** Calls of the chains API; the shapes are the chain contract's (src/contracts/chain.ts), the server's own. */
-import { requestJson, type ApiResult } from '@/components/forms/api';
+/**
+ * Calls of the chains API; the shapes are the chain contract's (src/contracts/chain.ts), the server's own. The chains pages call the API through the
+ * query hooks of ./queries; `chainsApi` below remains only for the runs dialogs, which move onto
+ * those hooks with the runs pages' own rework.
+ */
+import { requestJson, type ApiResult } from '@/components/query/fetch';
 import type { ChainChange } from '@/lib/chain-diff';
 import type { Chain, ChainList, ChainWithRevision, RevisionSummary, RevisionWithDocument } from '@/contracts/chain';
 import type { Visibility } from '@/contracts/capture';
@@ -11,6 +15,7 @@ export type Revision = RevisionSummary & Partial<Pick<RevisionWithDocument, 'doc
 
 const base = (id: string) => `/api/chains/${encodeURIComponent(id)}`;
 
+/** @deprecated in the chains pages: use the hooks of ./queries. */
 export const chainsApi = {
   list: (query: { q?: string; page?: number; pageSize?: number; owner?: string }) => {
     const params = new URLSearchParams();

@@ -1,8 +1,8 @@
 import { Component, lazy, Suspense, useMemo, useState, type ReactNode } from 'react';
-import type { Config, Data, Layout, PlotMouseEvent, PlotRelayoutEvent } from 'plotly.js-dist-min';
+import type { Config, Data, Layout, ModeBarDefaultButtons, PlotMouseEvent, PlotRelayoutEvent } from 'plotly.js-dist-min';
 import { usePlotTheme, type PlotTheme } from './plot-theme';
 
-// The 4.8 MB Plotly bundle arrives in its own chunk the first time a plot renders (or is preloaded).
+// The 1.5 MB Plotly bundle (cartesian traces only) arrives in its own chunk the first time a plot renders (or is preloaded).
 const loadPlotly = () => import('./plotly-component');
 const PlotlyComponent = lazy(loadPlotly);
 
@@ -45,7 +45,11 @@ export default function Plot({ label, data, layout, height = 320, config, testId
     () => ({
       displaylogo: false,
       responsive: true,
-      modeBarButtonsToRemove: ['lasso2d', 'select2d'],
+      // Nothing leaves the page: no button sends a chart or its data to an outside service (the
+      // bundle still knows the button, its types no longer list it).
+      showSendToCloud: false,
+      showEditInChartStudio: false,
+      modeBarButtonsToRemove: ['lasso2d', 'select2d', 'sendDataToCloud' as ModeBarDefaultButtons],
       toImageButtonOptions: { format: 'png', filename: fileName(label), scale: 2 },
       ...config,
     }),

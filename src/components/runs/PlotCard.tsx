@@ -74,7 +74,7 @@ export const PlotCard = forwardRef<HTMLDivElement, PlotCardProps>(function PlotC
  * (the page's plots are transparent, which would leave dark-theme text on nothing), then downloads it.
  */
 export async function downloadPng(graph: HTMLElement, fileName: string): Promise<void> {
-  const Plotly = (await import('plotly.js-dist-min')).default;
+  const Plotly = (await import('plotly.js-cartesian-dist-min')).default;
   const figure = graph as PlotlyHTMLElement;
   const background = readPlotTheme().panel || 'rgb(255, 255, 255)';
   const url = await Plotly.toImage(

@@ -4,6 +4,7 @@
  */
 import type { Data, Layout } from 'plotly.js-dist-min';
 import { axisScale, axisTitle, scaled } from '../plots/axes';
+import { plotLevels } from '../plots/figures';
 import type { PlotTheme } from '../plots/plot-theme';
 import type { ComparedSpectrum, Run } from './types';
 
@@ -50,7 +51,7 @@ export function overlayFigure(spectra: ComparedSpectrum[], runs: Run[], theme: P
       mode: 'lines',
       name,
       x: scaled(s.frequencies, scale),
-      y: s.levels,
+      y: plotLevels(s.levels),
       line: { color: runColour(theme, Math.max(0, index)), width: 1.25 },
       hovertemplate: `${name.replace(/[<>]/g, '')}<br>%{x:.6~f} ${scale.unit}<br>%{y:.2f} ${s.unit}<extra></extra>`,
     };

@@ -5,16 +5,14 @@
  */
 import type { Data, Layout, Shape } from 'plotly.js-dist-min';
 import { axisScale, axisTitle, scaled, type AxisScale } from '../plots/axes';
+import { channelNames, columnTimes, minMaxTraces, plotLevels, spectrogramTrace, type Figure } from '../plots/figures';
 import type { PlotTheme } from '../plots/plot-theme';
 import type { Marker, MarkerName } from './markers';
 import type { ConstellationPlotData, SpectrogramPlotData, SpectrumPlotData, TracePlotData } from './types';
 import type { StreamFormat } from '@/dsp/types';
 import { formatQuantity } from '@/lib/units';
 
-export interface Figure {
-  data: Data[];
-  layout: Partial<Layout>;
-}
+export type { Figure };
 
 /** The frequency axis of a probe: the offset added to stream frequencies (Hz), the unit scale and the title. */
 export interface FrequencyAxis {
@@ -85,7 +83,7 @@ export function spectrumFigure({ data, axis, noiseFloor, markers, theme }: Spect
       mode: 'lines',
       name: 'spectrum',
       x,
-      y: data.levels,
+      y: plotLevels(data.levels),
       line: { color: theme.accent, width: 1.25 },
       hovertemplate: `%{x:.7~f} ${axis.scale.unit}<br>%{y:.2f} ${unit}<extra></extra>`,
     },
@@ -165,36 +163,21 @@ export function spectrumFigure({ data, axis, noiseFloor, markers, theme }: Spect
   };
 }
 
-/** Level below which a fraction `p` of the finite pixels lie (floor of the colour scale). */
-function percentile(levels: (number | null)[][], p: number): number | undefined {
-  const all: number[] = [];
-  for (const row of levels) for (const v of row) if (v !== null && Number.isFinite(v)) all.push(v);
-  if (all.length === 0) return undefined;
-  all.sort((a, b) => a - b);
-  return all[Math.min(all.length - 1, Math.floor(p * all.length))];
-}
-
 /** Spectrogram as a heatmap: frequency across, time up, level as colour. */
 export function spectrogramFigure(data: SpectrogramPlotData, axis: FrequencyAxis, theme: PlotTheme): Figure {
   const duration = data.times.length > 1 ? data.times[data.times.length - 1]! : 1e-3;
   const timeScale = axisScale(0, duration, 's');
   return {
     data: [
-      {
-        type: 'heatmap',
+      spectrogramTrace({
         x: scaled(data.frequencies, axis.scale, axis.offset),
         y: scaled(data.times, timeScale),
-        z: data.levels,
-        colorscale: 'Viridis',
-        zmin: percentile(data.levels, 0.05),
-        colorbar: {
-          title: { text: data.unit, side: 'right', font: { size: 11, color: theme.muted } },
-          thickness: 10,
-          outlinewidth: 0,
-          tickfont: { family: '"JetBrains Mono Variable", ui-monospace, monospace', size: 10, color: theme.muted },
-        },
-        hovertemplate: `%{x:.7~f} ${axis.scale.unit}<br>%{y:.4~f} ${timeScale.unit}<br>%{z:.1f} ${data.unit}<extra></extra>`,
-      } as Data,
+        levels: data.levels,
+        unit: data.unit,
+        frequencyScale: axis.scale,
+        timeScale,
+        theme,
+      }),
     ],
     layout: {
       uirevision: 'spectrogram',
@@ -204,54 +187,20 @@ export function spectrogramFigure(data: SpectrogramPlotData, axis: FrequencyAxis
   };
 }
 
-/** Names of the channels of a trace by stream type. */
-function channelNames(format: StreamFormat): string[] {
-  if (format.sampleType === 'complex') return ['I', 'Q'];
-  if (format.sampleType === 'real-pair') return ['Channel 0 (I)', 'Channel 1 (Q)'];
-  return ['Signal'];
-}
-
 /** I and Q (or the real signal) against time, a min/max band per pixel column and channel. */
 export function traceFigure(data: TracePlotData, theme: PlotTheme): Figure {
   const columns = data.channels[0]?.min.length ?? 0;
   const timeScale = axisScale(0, (columns * data.samplesPerColumn) / data.sampleRate || 1e-3, 's');
-  const times = new Array<number>(columns);
-  for (let c = 0; c < columns; c++) times[c] = (c * data.samplesPerColumn) / data.sampleRate / timeScale.divisor;
-  const names = channelNames(data.format);
-  const traces: Data[] = [];
-  data.channels.forEach((channel, index) => {
-    const colour = theme.series[index % theme.series.length]!;
-    // Light fills, so where the I and Q bands overlap both stay visible.
-    const fill = colour.replace(/, 1\)$/, ', 0.2)');
-    const name = names[index] ?? `Channel ${index}`;
-    const hover = `${name}: %{y:.4f} FS at %{x:.5~f} ${timeScale.unit}<extra></extra>`;
-    if (data.samplesPerColumn <= 1) {
-      traces.push({ type: 'scatter', mode: 'lines', name, x: times, y: channel.max, line: { color: colour, width: 1 }, hovertemplate: hover });
-      return;
-    }
-    traces.push({
-      type: 'scatter',
-      mode: 'lines',
-      name,
-      legendgroup: name,
-      showlegend: false,
-      x: times,
-      y: channel.min,
-      line: { color: colour, width: 0.75 },
-      hovertemplate: hover,
-    });
-    traces.push({
-      type: 'scatter',
-      mode: 'lines',
-      name,
-      legendgroup: name,
-      x: times,
-      y: channel.max,
-      fill: 'tonexty',
-      fillcolor: fill,
-      line: { color: colour, width: 0.75 },
-      hovertemplate: hover,
-    });
+  const times = columnTimes(columns, data.samplesPerColumn, data.sampleRate, timeScale);
+  // Light fills, so where the I and Q bands overlap both stay visible.
+  const traces = minMaxTraces({
+    times,
+    channels: data.channels,
+    samplesPerColumn: data.samplesPerColumn,
+    names: channelNames(data.format.sampleType),
+    timeScale,
+    theme,
+    fillOpacity: 0.2,
   });
   return {
     data: traces,
@@ -265,7 +214,10 @@ export function traceFigure(data: TracePlotData, theme: PlotTheme): Figure {
   };
 }
 
-/** Constellation: Q against I with equal scales, WebGL points. */
+/**
+ * Constellation: Q against I with equal scales. SVG points: the server sends at most one point per
+ * pixel column (a few thousand), which SVG draws quickly, so the page needs no WebGL traces.
+ */
 export function constellationFigure(data: ConstellationPlotData, theme: PlotTheme): Figure {
   const i: number[] = [];
   const q: number[] = [];
@@ -276,7 +228,7 @@ export function constellationFigure(data: ConstellationPlotData, theme: PlotThem
   return {
     data: [
       {
-        type: 'scattergl',
+        type: 'scatter',
         mode: 'markers',
         name: 'samples',
         x: i,

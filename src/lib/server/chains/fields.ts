@@ -56,5 +56,7 @@ export const ListQuery = z
     owner: z.union([z.literal('me'), z.string().uuid('must be a user id or "me"')]).optional(),
     page: z.coerce.number().int().min(1).max(1_000_000).default(1),
     pageSize: z.coerce.number().int().min(1).max(100).default(20),
+    sort: z.enum(['name', 'updatedAt', 'createdAt', 'latestRevision']).default('updatedAt'),
+    order: z.enum(['asc', 'desc']).default('desc'),
   })
   .strict();

@@ -1,6 +1,7 @@
 /**
  * The chain list: chains the viewer can see (their own, and everyone's team chains), searched by
- * name or description, optionally of one owner, newest change first, a page at a time.
+ * name or description, optionally of one owner, sorted (newest change first unless asked), a page
+ * at a time.
  */
 import type { Knex } from 'knex';
 import type { Actor } from '@/lib/permissions';
@@ -14,7 +15,20 @@ export interface ChainQuery {
   /** 1-based page number. */
   page: number;
   pageSize: number;
+  /** Column to sort by (default updatedAt) and direction (default desc). */
+  sort?: ChainSortKey;
+  order?: 'asc' | 'desc';
 }
+
+/** Columns the list sorts by, as the API names them. */
+export type ChainSortKey = 'name' | 'updatedAt' | 'createdAt' | 'latestRevision';
+
+const SORT_COLUMNS: Record<ChainSortKey, string> = {
+  name: 'chains.name',
+  updatedAt: 'chains.updated_at',
+  createdAt: 'chains.created_at',
+  latestRevision: 'chains.latest_revision',
+};
 
 export interface ChainPage {
   items: ChainWithOwner[];
@@ -43,7 +57,8 @@ export async function listChains(db: Knex, viewer: Actor, query: ChainQuery): Pr
   };
   const counted = await db.count<{ count: number | string }[]>({ count: '*' }).from(filtered().as('visible_chains')).first();
   const items = (await filtered()
-    .orderBy('chains.updated_at', 'desc')
+    .orderByRaw(`${SORT_COLUMNS[query.sort ?? 'updatedAt']}${query.sort === 'name' ? ' collate nocase' : ''} ${query.order === 'asc' ? 'asc' : 'desc'}`)
+    // A stable order among equal keys, so no chain shows on two pages.
     .orderBy('chains.id', 'asc')
     .limit(query.pageSize)
     .offset((query.page - 1) * query.pageSize)) as ChainWithOwner[];

@@ -6,14 +6,17 @@ import { getDb } from '@/lib/server/db';
 import { createChain, listChains, presentChain } from '@/lib/server/chains';
 import { chainBodyLimitBytes, chainNameField, CreateChainBody, ListQuery } from '@/lib/server/chains/fields';
 
-/** Chains the user can see: `?q=` words in name or description, `?owner=` a user id or `me`, `?page=&pageSize=`. */
+/**
+ * Chains the user can see: `?q=` words in name or description, `?owner=` a user id or `me`,
+ * `?sort=name|updatedAt|createdAt|latestRevision&order=asc|desc` (default updatedAt desc), `?page=&pageSize=`.
+ */
 export const GET = endpoint(async (context) => {
   authorize(context, 'chain.read');
   const user = context.locals.user;
   if (!user) throw unauthenticated();
   const query = parseWith(ListQuery, Object.fromEntries(context.url.searchParams));
   const ownerId = query.owner === 'me' ? user.id : query.owner;
-  const page = await listChains(getDb(), user, { q: query.q, ownerId, page: query.page, pageSize: query.pageSize });
+  const page = await listChains(getDb(), user, { q: query.q, ownerId, page: query.page, pageSize: query.pageSize, sort: query.sort, order: query.order });
   return json({ ...page, items: page.items.map((chain) => presentChain(chain, user)) });
 });
 
