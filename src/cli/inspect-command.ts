@@ -8,18 +8,13 @@
  */
 import { basename } from 'node:path';
 import { WelchAccumulator } from '../dsp/spectral/welch';
-import type { SampleType } from '../dsp/types';
+import type { Capture } from '../contracts/capture';
 import { openCapture, type CaptureOptions } from './capture-source';
 
-export interface InspectReport {
+/** What `inspect` reports: the capture contract's format fields, then what the file holds. */
+export type InspectReport = Pick<Capture, 'datatype' | 'layout' | 'sampleRate' | 'centerFrequency'> & {
   file: string;
   container: string;
-  datatype: string;
-  layout: SampleType;
-  /** Samples per second (Hz). */
-  sampleRate: number;
-  /** Centre frequency (Hz) or null. */
-  centerFrequency: number | null;
   samples: number;
   /** Duration in seconds. */
   duration: number;
@@ -35,7 +30,7 @@ export interface InspectReport {
   author?: string;
   hw?: string;
   annotations?: number;
-}
+};
 
 /** One pass over a capture: levels, DC and the strongest tone (Welch, Hann, up to 4096 points). */
 export function inspectCapture(path: string, options: CaptureOptions = {}): InspectReport {

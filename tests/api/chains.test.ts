@@ -4,6 +4,7 @@ import { startServer, type TestServer } from '../helpers/server';
 import type { Client } from '../helpers/client';
 import { parseChainDocument, propagateChain } from '@/dsp/chain';
 import { countRows, createChain, downConversion, signedIn } from './chains-helpers';
+import { apiErrorBodySchema } from '@/contracts/errors';
 
 let server: TestServer;
 let engineer: Client;
@@ -297,6 +298,15 @@ describe('bad documents', () => {
     expect(saved.body.error).toMatchObject({ code: 'invalid_chain', field });
     expect(await countRows(server.db, 'chains')).toBe(chains);
     expect(await countRows(server.db, 'chain_revisions')).toBe(revisions);
+  });
+
+  it('names the stage at fault as fields of the error, by position, also when its id is a duplicate', async () => {
+    const duplicate = await engineer.post(`/api/chains/${id}/revisions`, { document: broken((d) => (d.stages[3]!.id = 'nco')), message: 'broken' });
+    expect(duplicate.status).toBe(422);
+    // Stage 3 took the id of stage 0: the index, not the id, says which one is at fault.
+    expect(apiErrorBodySchema.parse(duplicate.body).error).toMatchObject({ code: 'invalid_chain', stageIndex: 3, stageId: 'nco' });
+    const version = await engineer.post(`/api/chains/${id}/revisions`, { document: broken((d) => ((d as { version: number }).version = 2)), message: 'broken' });
+    expect(apiErrorBodySchema.parse(version.body).error.stageIndex).toBeUndefined();
   });
 
   it('answers 400 for malformed JSON, an overlong name, a missing document or an unknown field', async () => {

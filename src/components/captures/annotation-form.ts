@@ -7,6 +7,7 @@
 import { z } from 'zod';
 import { formatQuantity, parseQuantity } from '@/lib/units';
 import type { Annotation } from './types';
+import type { Capture } from '@/contracts/capture';
 
 /** What the user typed, one string per field. */
 export interface AnnotationFormValues {
@@ -20,13 +21,8 @@ export interface AnnotationFormValues {
 
 export type AnnotationField = keyof AnnotationFormValues;
 
-/** What the form's checks need to know about the capture. */
-export interface AnnotationContext {
-  /** Samples per second (Hz). */
-  sampleRate: number;
-  /** Samples in the whole capture. */
-  sampleCount: number;
-}
+/** What the form's checks need to know about the capture (rate in Hz, samples in the whole capture). */
+export type AnnotationContext = Pick<Capture, 'sampleRate' | 'sampleCount'>;
 
 /** Outcome of reading a position or a length: a whole number of samples, or what is wrong. */
 export type SamplesReading = { ok: true; samples: number; fromTime: boolean } | { ok: false; message: string };

@@ -13,24 +13,21 @@ import { MinMaxTraceReducer, reduceSpectrumMax } from '../../dsp/spectral/trace-
 import { estimateIqImbalance } from '../../dsp/measure/iq-imbalance';
 import { imageRejectionDb } from '../../dsp/measure/image-rejection';
 import { dcLevelDbfs } from '../../dsp/measure/sample-moments';
-import type { SampleType, SpectrogramResult, SpectrumResult, TraceResult } from '../../dsp/types';
+import type { SpectrogramResult, SpectrumResult, TraceResult } from '../../dsp/types';
+import type { Capture } from '../../contracts/capture';
 
 /** Samples the quick look reads from the start of a capture: 2^18. */
 export const QUICK_LOOK_SAMPLES = 2 ** 18;
 
 /** What the quick look needs to know about the bytes. */
-export interface QuickLookInput {
+/** The head's bytes and how to read them (the capture's datatype, layout and rate). */
+export type QuickLookInput = Pick<Capture, 'datatype' | 'layout' | 'sampleRate'> & {
   bytes: ArrayBuffer;
-  /** SigMF datatype string. */
-  datatype: string;
-  layout: SampleType;
-  /** Samples per second (Hz). */
-  sampleRate: number;
   /** Most points of the spectrum plot (default 2048). */
   spectrumColumns?: number;
   /** Most columns of the I/Q trace (default 2048). */
   traceColumns?: number;
-}
+};
 
 /** Balance of the head: DC offsets (full scale 1.0 and dBFS); gain and phase only for I/Q. */
 export interface BalanceEstimate {

@@ -9,16 +9,11 @@ import { widenedPcm24Bytes } from '@/dsp/formats/pcm24';
 import { WavReader } from '@/dsp/formats/wav-reader';
 import type { SampleType } from '@/dsp/types';
 import { readTarMembers } from './tar-members';
+import type { Capture } from '@/contracts/capture';
 
 /** What the file itself says about the samples (empty for raw data). */
-export interface StatedByFile {
-  datatype?: string;
-  layout?: SampleType;
-  /** Hz. */
-  sampleRate?: number;
-  /** Hz. */
-  centerFrequency?: number | null;
-}
+/** What a file's header states of the capture's description. */
+export type StatedByFile = Partial<Pick<Capture, 'datatype' | 'layout' | 'sampleRate' | 'centerFrequency'>>;
 
 /** A picked upload, ready for the form. */
 export interface PickedUpload {
