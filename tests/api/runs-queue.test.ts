@@ -180,9 +180,12 @@ describe('result cache', () => {
   }, 180_000);
 
   it('misses a result stored under another engine version', async () => {
+    // A real result of this test's own: a run of another chain on the same capture.
+    const own = await submitRun(engineer, await createChain(engineer, quickChain(130_000)), smallCapture);
+    const ownRow = await server.db('runs').where({ id: (await waitForRun(engineer, own.id, finished)).id }).first();
     const chain = await createChain(engineer, quickChain(120_000));
     const capture = await server.db('captures').where({ id: smallCapture }).first();
-    const result = await server.db('run_results').first();
+    const result = await server.db('run_results').where({ id: ownRow.result_id }).first();
     // File a copy of a real result under the key the previous engine version would have used.
     await server.db('run_results').insert({
       ...result,

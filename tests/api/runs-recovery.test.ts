@@ -22,8 +22,8 @@ afterEach(async () => {
   }
 });
 
-async function start(dataDir?: string, untouched = false): Promise<RunsServer> {
-  const server = await startRunsServer({ dataDir, untouched, env: { QUADRILLE_RUN_CONCURRENCY: '1' } });
+async function start(dataDir?: string, untouched = false, env: Record<string, string> = {}): Promise<RunsServer> {
+  const server = await startRunsServer({ dataDir, untouched, env: { QUADRILLE_RUN_CONCURRENCY: '1', ...env } });
   servers.push(server);
   return server;
 }
@@ -93,5 +93,19 @@ describe('restart recovery', () => {
     expect(done.status).toBe('succeeded');
     const result = await second.db('run_results').where({ id: (await second.db('runs').where({ id: run.id }).first()).result_id }).first();
     expect(storedOutputs(second.dataDir)).toEqual([result.output_key.split('/')[1]]);
+  }, 240_000);
+
+  it('lets an executing run finish within the grace period on SIGTERM before the process ends', async () => {
+    const server = await start(undefined, false, { QUADRILLE_RUN_SHUTDOWN_GRACE_MS: '600000' });
+    const engineer = await signedIn(server.baseUrl, 'engineer@saltmarsh.test');
+    const capture = await synthCapture(engineer, 'Short beacon capture', 0.1, 2);
+    const run = await submitRun(engineer, await createChain(engineer, slowChain()), capture);
+    await waitForRun(engineer, run.id, (r) => r.status === 'running', 60_000);
+    await server.stop(true);
+    expect(server.process.exitCode).toBe(0);
+    const row = await server.db('runs').where({ id: run.id }).first();
+    expect(row.status).toBe('succeeded');
+    const result = await server.db('run_results').where({ id: row.result_id }).first();
+    expect(storedOutputs(server.dataDir)).toEqual([result.output_key.split('/')[1]]);
   }, 240_000);
 });

@@ -27,6 +27,8 @@ let db: Knex;
 const admin: Actor = { id: randomUUID(), role: 'admin' };
 const engineer: Actor = { id: randomUUID(), role: 'engineer' };
 const chainId = randomUUID();
+/** The chain of the 30 listed runs only, so runs other tests submit never join the list under test. */
+const listChainId = randomUUID();
 const captureIds: string[] = [];
 const runIds: string[] = [];
 const now = Date.parse('2026-12-01T00:00:00Z');
@@ -58,7 +60,7 @@ beforeAll(async () => {
     const id = randomUUID();
     runIds.push(id);
     await db('runs').insert({
-      id, requested_by: engineer.id, chain_id: chainId, chain_revision: 1, chain_name: 'Gain', capture_id: captureIds[i % 3], capture_name: 'c',
+      id, requested_by: engineer.id, chain_id: listChainId, chain_revision: 1, chain_name: 'Gain', capture_id: captureIds[i % 3], capture_name: 'c',
       cache_key: 'k'.repeat(64), status: 'failed', progress: 0, created_at: iso(100 + Math.floor(i / 3)),
     });
   }
@@ -125,21 +127,21 @@ describe('keyset paging', () => {
     const seen: string[] = [];
     let cursor: string | undefined;
     for (let pages = 0; pages < 10; pages++) {
-      const page = await listRuns(db, admin, { all: true, mine: false, statuses: [], page: 1, pageSize: 7, cursor });
+      const page = await listRuns(db, admin, { all: true, mine: false, statuses: [], page: 1, pageSize: 7, cursor, chainId: listChainId });
       expect(page.total).toBe(30);
       seen.push(...page.items.map((run) => run.id));
       if (!page.nextCursor) break;
       cursor = page.nextCursor;
     }
-    const expected = (await db('runs').select('id', 'created_at')) as { id: string; created_at: string }[];
+    const expected = (await db('runs').where({ chain_id: listChainId }).select('id', 'created_at')) as { id: string; created_at: string }[];
     expected.sort((a, b) => (a.created_at === b.created_at ? (a.id < b.id ? 1 : -1) : a.created_at < b.created_at ? 1 : -1));
     expect(seen).toEqual(expected.map((row) => row.id));
   });
 
   it('gives the same second page by cursor as by page number', async () => {
-    const first = await listRuns(db, admin, { all: true, mine: false, statuses: [], page: 1, pageSize: 10 });
-    const byCursor = await listRuns(db, admin, { all: true, mine: false, statuses: [], page: 1, pageSize: 10, cursor: first.nextCursor! });
-    const byNumber = await listRuns(db, admin, { all: true, mine: false, statuses: [], page: 2, pageSize: 10 });
+    const first = await listRuns(db, admin, { all: true, mine: false, statuses: [], page: 1, pageSize: 10, chainId: listChainId });
+    const byCursor = await listRuns(db, admin, { all: true, mine: false, statuses: [], page: 1, pageSize: 10, cursor: first.nextCursor!, chainId: listChainId });
+    const byNumber = await listRuns(db, admin, { all: true, mine: false, statuses: [], page: 2, pageSize: 10, chainId: listChainId });
     expect(byCursor.items.map((run) => run.id)).toEqual(byNumber.items.map((run) => run.id));
   });
 

@@ -41,10 +41,9 @@ export function SpectrumCard({ runId, probe, fileBase }: SpectrumCardProps) {
   const [bins, setBins] = useState<MarkerSpectrum | null>(null);
   // Every bin is only needed once a marker is placed; later calls answer from the query cache.
   const loadBins = useCallback(async (): Promise<MarkerSpectrum> => {
-    const loaded = await queryClient.fetchQuery({
+    const loaded = await queryClient.ensureQueryData({
       queryKey: ['spectrum-bins', runId, probe.stageId],
       queryFn: () => fetchSpectrumBins(runId, probe.stageId),
-      staleTime: Infinity,
     });
     setBins(loaded);
     return loaded;

@@ -4,7 +4,7 @@
  * runs with the names of their private chains and captures withheld.
  */
 import { access, can, type Actor } from '@/lib/permissions';
-import { finishedStatuses, flag, runResource, type RunStatus, type RunView } from './rows';
+import { finishedStatuses, flag, runResource, type RunView } from './rows';
 import type { PresentedRun, PresentedRunError } from '@/contracts/run';
 import type { RunSummary } from '@/contracts/run-results';
 

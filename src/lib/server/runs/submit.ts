@@ -15,7 +15,8 @@ import { ApiError, conflict, forbidden, unprocessable } from '../api/errors';
 import { captureFormatOf, findCaptures, type CaptureWithOwner } from '../captures/rows';
 import { chainResource, findChain, findRevision } from '../chains/rows';
 import { cacheKey, computationHash } from './cache-key';
-import type { RunRow, RunStatus, RunView } from './rows';
+import type { SubmittedRun } from '@/contracts/run';
+import type { RunRow, RunView } from './rows';
 import { publishRunNotice } from './events';
 import { assertComputeLeft, assertRoomInQueue } from './usage';
 
@@ -28,12 +29,7 @@ export interface RunRequest {
   captureField(index: number): string;
 }
 
-/** What POST /api/runs answers per run. */
-export interface SubmittedRun {
-  id: string;
-  status: RunStatus;
-  fromCache: boolean;
-}
+export type { SubmittedRun };
 
 /** Computation hashes of revisions by id: revisions never change, so each is hashed once (bounded). */
 const revisionHashes = new Map<string, string>();
