@@ -51,6 +51,8 @@ const fields = {
   QUADRILLE_RUN_MAX_PENDING: doc('QUADRILLE_RUN_MAX_PENDING', wholeNumber(100, 1), 'count', '100', 'queued + running runs one user may have (then 429)'),
   QUADRILLE_RUN_PROGRESS_MS: doc('QUADRILLE_RUN_PROGRESS_MS', wholeNumber(200, 10), 'ms', '200', 'least time between two progress updates of a run'),
   QUADRILLE_RUN_CANCEL_GRACE_MS: doc('QUADRILLE_RUN_CANCEL_GRACE_MS', wholeNumber(1500, 0), 'ms', '1500', 'time a cancelled worker gets to stop before it is terminated'),
+  QUADRILLE_RUN_SHUTDOWN_GRACE_MS: doc('QUADRILLE_RUN_SHUTDOWN_GRACE_MS', wholeNumber(10_000, 0), 'ms', '10000', 'time executing runs get to finish on SIGTERM/SIGINT before they are stopped and put back in the queue'),
+  QUADRILLE_RUN_WORKER_HEAP_MB: doc('QUADRILLE_RUN_WORKER_HEAP_MB', wholeNumber(1536, 64), 'MiB', '1536', 'old-generation heap cap of one run worker thread'),
   QUADRILLE_RUN_NICE: doc('QUADRILLE_RUN_NICE', wholeNumber(19, 0, 19), 'nice', '19', 'nice value of run worker threads (Linux)'),
   QUADRILLE_SSE_HEARTBEAT_MS: doc('QUADRILLE_SSE_HEARTBEAT_MS', wholeNumber(15_000, 100), 'ms', '15000', 'interval of the keep-alive comment on event streams'),
   QUADRILLE_RUN_WORKER: doc('QUADRILLE_RUN_WORKER', text(), 'path', 'built-in', 'worker entry file, overriding the built-in lookup'),

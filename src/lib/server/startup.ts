@@ -13,7 +13,7 @@ import { migrateToLatest } from './db/migration-source';
 import { getLucia } from './auth/lucia';
 import { backfillResultSummaries } from './runs/backfill';
 import { startRunScheduler, stopRunScheduler } from './runs/scheduler';
-import { shutdownGraceMs } from './runs/shutdown-config';
+import { shutdownGraceMs } from './runs/config';
 
 let ready: Promise<void> | null = null;
 

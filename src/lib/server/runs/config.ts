@@ -24,6 +24,16 @@ export function cancelGraceMs(): number {
   return config().QUADRILLE_RUN_CANCEL_GRACE_MS;
 }
 
+/** Time (ms) executing runs get to finish when the server is asked to stop, before they are put back in the queue. */
+export function shutdownGraceMs(): number {
+  return config().QUADRILLE_RUN_SHUTDOWN_GRACE_MS;
+}
+
+/** Heap cap (MiB) of a run worker's old generation: a runaway run fails alone instead of taking the server down. */
+export function workerHeapMb(): number {
+  return config().QUADRILLE_RUN_WORKER_HEAP_MB;
+}
+
 /** Nice value of run worker threads (0..19): higher lets the web server's requests go first. */
 export function workerNiceness(): number {
   return config().QUADRILLE_RUN_NICE;

@@ -7,8 +7,7 @@ import { existsSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
-import { cancelGraceMs, workerEntryOverride } from './config';
-import { workerHeapMb } from './shutdown-config';
+import { cancelGraceMs, workerEntryOverride, workerHeapMb } from './config';
 import type { RunJob, SchedulerMessage, WorkerMessage, WorkerOutcome } from './protocol';
 
 interface WorkerEntry {
