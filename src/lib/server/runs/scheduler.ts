@@ -12,7 +12,7 @@ import { ENGINE_VERSION } from '@/dsp/version';
 import { readStoredChainDocument } from '@/contracts/chain';
 import { getDb } from '../db';
 import { getObjectStore } from '../captures/store';
-import { findCapture } from '../captures/rows';
+import { findCapture, runJobCaptureOf } from '../captures/rows';
 import { findRevision } from '../chains/rows';
 import { quotaOf, quotasOf } from '../quota';
 import { computeSecondsToday } from './usage';
@@ -198,16 +198,7 @@ export class RunScheduler {
       runId,
       document,
       chain: { id: run.chain_id, name: run.chain_name, revision: run.chain_revision },
-      capture: {
-        id: capture.id,
-        name: capture.name,
-        storageKey: capture.storage_key,
-        datatype: capture.datatype,
-        layout: capture.layout,
-        sampleRate: capture.sample_rate,
-        centerFrequency: capture.center_frequency,
-        sampleCount: Number(capture.sample_count),
-      },
+      capture: runJobCaptureOf(capture),
       outputKey,
       progressIntervalMs: progressIntervalMs(),
       niceness: workerNiceness(),
