@@ -4,7 +4,7 @@
  * not noise; noise in the bins left out is replaced by the mean noise of the other bins.
  */
 import { binOfFrequency, type MeasuredSpectrum } from './measured-spectrum';
-import { findTone, markLobe, type ToneReading } from './tone';
+import { findTone, markLobe, windowPowerAt, type ToneReading } from './tone';
 
 export interface DynamicRangeOptions {
   /** Highest harmonic counted as distortion for real signals (default 5; 1 = none). */
@@ -23,8 +23,38 @@ export interface DynamicRange {
   snrDb: number;
   /** Signal to noise-and-distortion ratio (dB). */
   sinadDb: number;
-  /** Tone peak bin over the highest other bin outside the DC and tone lobes (dBc). */
+  /**
+   * Carrier over the largest spur (dBc), each as its main-lobe power / ENBW (so neither scallops);
+   * the spur is the strongest bin outside the DC and carrier lobes, harmonics included.
+   */
   sfdrDb: number;
+  /** Full-scale tone (0.5 real, 1 complex) over the largest spur (dBFS, ADC data-sheet habit). */
+  sfdrDbfs: number;
+  /** Frequency (Hz) of the largest spur's peak bin. */
+  spurFrequency: number;
+  /**
+   * True when the largest spur is within 10 dB of the leakage the window's side lobes put there
+   * from the carrier alone: the SFDR then tells the window, not the signal.
+   */
+  spurWindowLimited: boolean;
+}
+
+/** Linear power the window's side lobes carry from `tone` into display bin `k` (a lone tone's leakage). */
+export function toneLeakage(spectrum: MeasuredSpectrum, tone: ToneReading, k: number): number {
+  const { fftSize, sampleRate, window } = spectrum;
+  const nu = (tone.frequency / sampleRate) * fftSize;
+  const binOffset = (f: number) => {
+    let d = (f / sampleRate) * fftSize - nu;
+    if (spectrum.sampleType === 'complex') d = d - fftSize * Math.round(d / fftSize);
+    return d;
+  };
+  const peakOffset = binOffset(spectrum.frequencies[tone.bin]);
+  const reference = windowPowerAt(window, peakOffset, fftSize);
+  if (!(reference > 0)) return 0;
+  let leak = windowPowerAt(window, binOffset(spectrum.frequencies[k]), fftSize);
+  // A real tone also leaks from its mirror at -f.
+  if (spectrum.sampleType === 'real') leak += windowPowerAt(window, (spectrum.frequencies[k] / sampleRate) * fftSize + nu, fftSize);
+  return (spectrum.power[tone.bin] * leak) / reference;
 }
 
 /** SNR, SINAD and SFDR of the strongest tone of a measured spectrum. */
@@ -48,15 +78,15 @@ export function dynamicRange(spectrum: MeasuredSpectrum, options: DynamicRangeOp
 
   let noiseSum = 0;
   let noiseBins = 0;
-  let spur = 0;
+  let spurBin = -1;
   for (let k = 0; k < n; k++) {
     if (dcMask[k] || toneMask[k]) continue;
-    if (power[k] > spur) spur = power[k];
+    if (spurBin < 0 || power[k] > power[spurBin]) spurBin = k;
     if (harmonicMask[k]) continue;
     noiseSum += power[k];
     noiseBins++;
   }
-  if (noiseBins === 0) throw new RangeError('fftSize: too small to leave any noise bins outside the tone, harmonic and DC lobes');
+  if (noiseBins === 0 || spurBin < 0) throw new RangeError('fftSize: too small to leave any noise bins outside the tone, harmonic and DC lobes');
   const noisePerBin = noiseSum / noiseBins;
   const noisePower = (noisePerBin * n) / enbwBins;
 
@@ -69,13 +99,27 @@ export function dynamicRange(spectrum: MeasuredSpectrum, options: DynamicRangeOp
     }
   }
   const distortionPower = Math.max(0, (harmonicSum - noisePerBin * harmonicBins) / enbwBins);
-  const tonePeak = power[tone.bin];
+  // The spur's lobe stops where the carrier's or the DC lobe begins, so none is counted twice.
+  const spurMask = new Uint8Array(n);
+  markLobe(spurMask, spectrum, spurBin, lobe);
+  let spurSum = 0;
+  let leakSum = 0;
+  for (let k = 0; k < n; k++) {
+    if (!spurMask[k] || dcMask[k] || toneMask[k]) continue;
+    spurSum += power[k];
+    leakSum += toneLeakage(spectrum, tone, k);
+  }
+  const spurPower = spurSum / enbwBins;
+  const fullScale = spectrum.sampleType === 'real' ? 0.5 : 1;
   return {
     tone,
     noisePower,
     distortionPower,
     snrDb: 10 * Math.log10(tone.power / noisePower),
     sinadDb: 10 * Math.log10(tone.power / (noisePower + distortionPower)),
-    sfdrDb: spur > 0 ? 10 * Math.log10(tonePeak / spur) : Infinity,
+    sfdrDb: 10 * Math.log10(tone.power / spurPower),
+    sfdrDbfs: 10 * Math.log10(fullScale / spurPower),
+    spurFrequency: spectrum.frequencies[spurBin],
+    spurWindowLimited: spurSum < 10 * leakSum,
   };
 }
