@@ -1,10 +1,10 @@
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, test } from 'vitest';
-import { measureStage } from '@/dsp/stages/measure';
 import { imageRejectionDb } from '@/dsp/measure';
-import type { Readout, StreamFormat } from '@/dsp/types';
-import { gaussian, randomBlocks, seededRandom } from './spectral-fixtures';
+import type { StreamFormat } from '@/dsp/types';
+import { gaussian, seededRandom } from './spectral-fixtures';
+import { measure, valueOf } from './measure-helpers';
 
 interface IdealAdcFixture {
   versions: { numpy: string; scipy: string };
@@ -15,27 +15,6 @@ interface IdealAdcFixture {
 const idealAdc: IdealAdcFixture = JSON.parse(
   readFileSync(fileURLToPath(new URL('../reference/fixtures/readouts/ideal-adc.json', import.meta.url)), 'utf8'),
 );
-
-/** Runs the measure stage over `x` (cut into random blocks) and returns its readouts by name. */
-function measure(x: Float32Array, format: StreamFormat, params: Record<string, unknown>): Record<string, Readout> {
-  const processor = measureStage.create(measureStage.schema.parse(params), format);
-  const width = format.sampleType === 'complex' ? 2 : 1;
-  for (const block of x.length > 0 ? randomBlocks(x, width, 7, 40_000) : []) processor.process(block);
-  processor.finish();
-  const readouts = processor.probe!().readouts!;
-  // +/-Infinity and NaN never leave the engine; a null always says why.
-  for (const r of readouts) {
-    if (r.value === null) expect(r.reason, r.name).toMatch(/\w/);
-    else expect(Number.isFinite(r.value), r.name).toBe(true);
-  }
-  return Object.fromEntries(readouts.map((r) => [r.name, r]));
-}
-
-const valueOf = (r: Readout | undefined): number => {
-  expect(r, 'readout present').toBeDefined();
-  expect(r!.value, r!.reason).not.toBeNull();
-  return r!.value!;
-};
 
 /** The ideal mid-rise N-bit quantiser of tests/reference/gen_readouts.py (full scale +/-1). */
 function quantisedSine(n: number, cyclesPerSample: number, bits: number, phase: number): Float32Array {

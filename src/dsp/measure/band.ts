@@ -90,3 +90,34 @@ export function occupiedBandwidth(spectrum: MeasuredSpectrum, fraction = 0.99, e
   }
   return { lowHz, highHz, bandwidthHz: complex ? bandwidthHz : highHz - lowHz };
 }
+
+export interface AdjacentChannelRatios {
+  /** Channel power over the lower adjacent channel (dB), or null with `lowerReason`. */
+  lowerDb: number | null;
+  lowerReason?: string;
+  /** Channel power over the upper adjacent channel (dB), or null with `upperReason`. */
+  upperDb: number | null;
+  upperReason?: string;
+}
+
+/**
+ * ACLR (3GPP TS 36.141 / 38.141 definition): power in the channel [lowHz, highHz] over the power in
+ * the same-width channel `spacingHz` below and above it, each integrated over its bins (dB). A
+ * neighbour reaching outside the spectrum (beyond +/- fs/2, or below 0 Hz for real streams) or
+ * holding no power is not computable.
+ */
+export function adjacentChannelRatios(spectrum: MeasuredSpectrum, lowHz: number, highHz: number, spacingHz: number): AdjacentChannelRatios {
+  const main = channelPower(spectrum, lowHz, highHz);
+  const nyquist = spectrum.sampleRate / 2;
+  const lowest = spectrum.sampleType === 'complex' ? -nyquist : 0;
+  const side = (offset: number): { db: number | null; reason?: string } => {
+    const [lo, hi] = [lowHz + offset, highHz + offset];
+    if (lo < lowest || hi > nyquist) return { db: null, reason: `the adjacent channel ${lo} to ${hi} Hz reaches beyond the spectrum (${lowest} to ${nyquist} Hz)` };
+    const p = channelPower(spectrum, lo, hi);
+    if (!(p > 0) || !(main > 0)) return { db: null, reason: 'no power in the channel or its neighbour' };
+    return { db: 10 * Math.log10(main / p) };
+  };
+  const lower = side(-spacingHz);
+  const upper = side(spacingHz);
+  return { lowerDb: lower.db, lowerReason: lower.reason, upperDb: upper.db, upperReason: upper.reason };
+}

@@ -4,7 +4,8 @@
  * not noise; noise in the bins left out is replaced by the mean noise of the other bins.
  */
 import { binOfFrequency, type MeasuredSpectrum } from './measured-spectrum';
-import { findTone, markLobe, windowPowerAt, type ToneReading } from './tone';
+import { getFftPlan } from '../fft/plan';
+import { findTone, markLobe, type ToneReading } from './tone';
 
 export interface DynamicRangeOptions {
   /** Highest harmonic counted as distortion for real signals (default 5; 1 = none). */
@@ -39,22 +40,38 @@ export interface DynamicRange {
   spurWindowLimited: boolean;
 }
 
-/** Linear power the window's side lobes carry from `tone` into display bin `k` (a lone tone's leakage). */
-export function toneLeakage(spectrum: MeasuredSpectrum, tone: ToneReading, k: number): number {
+/**
+ * Linear power the window's side lobes carry from `tone` alone into every bin (display order): a
+ * lone tone's leakage, scaled to the tone's peak bin. One FFT of the window turned to the tone's
+ * frequency gives W(k - f) at every bin k; a real tone adds its mirror at -f.
+ */
+export function toneLeakageSpectrum(spectrum: MeasuredSpectrum, tone: ToneReading): Float64Array {
   const { fftSize, sampleRate, window } = spectrum;
   const nu = (tone.frequency / sampleRate) * fftSize;
-  const binOffset = (f: number) => {
-    let d = (f / sampleRate) * fftSize - nu;
-    if (spectrum.sampleType === 'complex') d = d - fftSize * Math.round(d / fftSize);
-    return d;
+  const input = new Float64Array(2 * fftSize);
+  for (let n = 0; n < window.length; n++) {
+    const ph = (2 * Math.PI * nu * n) / fftSize;
+    input[2 * n] = window[n] * Math.cos(ph);
+    input[2 * n + 1] = window[n] * Math.sin(ph);
+  }
+  const x = getFftPlan(fftSize).forward(input, new Float64Array(2 * fftSize));
+  const at = (m: number) => {
+    const i = ((m % fftSize) + fftSize) % fftSize;
+    return x[2 * i] * x[2 * i] + x[2 * i + 1] * x[2 * i + 1];
   };
-  const peakOffset = binOffset(spectrum.frequencies[tone.bin]);
-  const reference = windowPowerAt(window, peakOffset, fftSize);
-  if (!(reference > 0)) return 0;
-  let leak = windowPowerAt(window, binOffset(spectrum.frequencies[k]), fftSize);
-  // A real tone also leaks from its mirror at -f.
-  if (spectrum.sampleType === 'real') leak += windowPowerAt(window, (spectrum.frequencies[k] / sampleRate) * fftSize + nu, fftSize);
-  return (spectrum.power[tone.bin] * leak) / reference;
+  const complex = spectrum.sampleType === 'complex';
+  const n = spectrum.power.length;
+  const shape = new Float64Array(n);
+  for (let k = 0; k < n; k++) {
+    // Display bin k of a complex spectrum is natural bin k - fftSize/2; a real one's is k, plus
+    // the mirror's W(k + f), which (|W| even) is natural bin -k.
+    shape[k] = complex ? at(k - fftSize / 2) : at(k) + at(-k);
+  }
+  const reference = shape[tone.bin];
+  if (!(reference > 0)) return new Float64Array(n);
+  const scale = spectrum.power[tone.bin] / reference;
+  for (let k = 0; k < n; k++) shape[k] *= scale;
+  return shape;
 }
 
 /** SNR, SINAD and SFDR of the strongest tone of a measured spectrum. */
@@ -104,10 +121,11 @@ export function dynamicRange(spectrum: MeasuredSpectrum, options: DynamicRangeOp
   markLobe(spurMask, spectrum, spurBin, lobe);
   let spurSum = 0;
   let leakSum = 0;
+  const leakage = toneLeakageSpectrum(spectrum, tone);
   for (let k = 0; k < n; k++) {
     if (!spurMask[k] || dcMask[k] || toneMask[k]) continue;
     spurSum += power[k];
-    leakSum += toneLeakage(spectrum, tone, k);
+    leakSum += leakage[k];
   }
   const spurPower = spurSum / enbwBins;
   const fullScale = spectrum.sampleType === 'real' ? 0.5 : 1;

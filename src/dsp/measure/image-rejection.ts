@@ -32,9 +32,10 @@ export interface SpectralImageRejection {
 
 /**
  * Tone lobe power over image lobe power (dB) at -`toneHz` in a complex spectrum; not computable
- * when the tone and its image share a lobe (tone at 0 Hz or fs/2).
+ * when the tone and its image share a lobe (tone at 0 Hz or fs/2). `leakage`: the tone's own
+ * window leakage per bin (display order), to tell an image from the window's skirt.
  */
-export function spectralImageRejection(spectrum: MeasuredSpectrum, toneBin: number, toneHz: number, leakageFloor: (bin: number) => number): SpectralImageRejection {
+export function spectralImageRejection(spectrum: MeasuredSpectrum, toneBin: number, toneHz: number, leakage: Float64Array): SpectralImageRejection {
   if (spectrum.sampleType !== 'complex') return { value: null, reason: 'needs a complex stream: a real one has no separate image', windowLimited: false };
   const imageBin = binOfFrequency(spectrum, -toneHz);
   const n = spectrum.power.length;
@@ -49,5 +50,5 @@ export function spectralImageRejection(spectrum: MeasuredSpectrum, toneBin: numb
   const wanted = lobePower(spectrum, toneBin, spectrum.mainLobeBins);
   const image = lobePower(spectrum, imageBin, spectrum.mainLobeBins);
   if (!(image > 0)) return { value: null, reason: 'no power at all at the image frequency', windowLimited: false };
-  return { value: 10 * Math.log10(wanted / image), windowLimited: spectrum.power[imageBin] < 10 * leakageFloor(imageBin) };
+  return { value: 10 * Math.log10(wanted / image), windowLimited: spectrum.power[imageBin] < 10 * leakage[imageBin] };
 }

@@ -34,7 +34,7 @@ export function lobePower(spectrum: MeasuredSpectrum, centre: number, halfWidth:
 }
 
 /** |W(offset)|^2 of the window's DTFT at `offset` bins (of an fftSize-point DFT) from its centre. */
-export function windowPowerAt(window: Float64Array, offset: number, fftSize: number): number {
+function windowPowerAt(window: Float64Array, offset: number, fftSize: number): number {
   const step = (2 * Math.PI * offset) / fftSize;
   let re = 0;
   let im = 0;

@@ -8,11 +8,12 @@ import type { MeasuredSpectrum } from '../measure/measured-spectrum';
 import type { SampleMoments } from '../measure/sample-moments';
 import type { ClippingCounter } from '../measure/clipping';
 import { findTone, lobePower, markLobe, type ToneReading } from '../measure/tone';
-import { dynamicRange, toneLeakage } from '../measure/dynamic-range';
+import { dynamicRange, toneLeakageSpectrum } from '../measure/dynamic-range';
 import { channelPower, occupiedBandwidth } from '../measure/band';
 import { imageRejectionDb, spectralImageRejection } from '../measure/image-rejection';
 import { fitSine, type SineFit } from '../measure/sine-fit';
 import { notComputable, readout } from '../measure/readout';
+import { noiseReadouts } from './measure-noise-readouts';
 
 /** What the readouts are built from. */
 export interface MeasureInputs {
@@ -25,6 +26,8 @@ export interface MeasureInputs {
   calibrationDb: number;
   bandLow?: number;
   bandHigh?: number;
+  aclrSpacing?: number;
+  imdGainDb?: number;
   /** Samples (complex samples for complex streams) that went through the stage. */
   samples: number;
   spectrum: MeasuredSpectrum | null;
@@ -153,7 +156,7 @@ export function measureReadouts(inputs: MeasureInputs): Readout[] {
     const reason = toneReason ?? (complex ? (context!.atDc ? TONE_AT_DC : null) : 'needs a complex stream: a real one has no separate image');
     group([['Image rejection (measured)', 'dB']], reason, () => {
       const { tone } = context!;
-      const r = spectralImageRejection(spectrum!, tone.bin, tone.frequency, (bin) => toneLeakage(spectrum!, tone, bin));
+      const r = spectralImageRejection(spectrum!, tone.bin, tone.frequency, toneLeakageSpectrum(spectrum!, tone));
       const flags: ReadoutFlag[] = r.windowLimited ? [...spectralFlags, 'window-limited'] : spectralFlags;
       const reasonLimited = `the image lies within 10 dB of the ${inputs.window} window's leakage from the tone: the true rejection is higher; use window 'kaiser' with beta 20 or more`;
       return [readout('Image rejection (measured)', r.windowLimited ? null : r.value, 'dB', { flags, definition: 'irr-spectral', reason: r.windowLimited ? reasonLimited : r.reason })];
@@ -167,6 +170,24 @@ export function measureReadouts(inputs: MeasureInputs): Readout[] {
       return [readout('Channel power', p > 0 ? 10 * Math.log10(p) + cal : null, level, { flags: spectralFlags, definition: 'channel-power-welch', reason: 'no power at all in the band' })];
     });
   }
+
+  out.push(
+    ...noiseReadouts({
+      wanted,
+      spectrum,
+      spectralReason: spectral,
+      tone: context && !context.atDc ? context.tone : null,
+      toneReason: toneReason ?? (context!.atDc ? TONE_AT_DC : null),
+      flags: spectralFlags,
+      harmonics: inputs.harmonics,
+      window: inputs.window,
+      calibrationDb: cal,
+      bandLow: inputs.bandLow,
+      bandHigh: inputs.bandHigh,
+      aclrSpacing: inputs.aclrSpacing,
+      imdGainDb: inputs.imdGainDb,
+    }),
+  );
 
   if (wanted.has('obw')) {
     const names: [string, string][] = [['Occupied bandwidth (99 %)', 'Hz'], ['Occupied band lower edge', 'Hz'], ['Occupied band upper edge', 'Hz']];

@@ -27,8 +27,15 @@ export const MEASUREMENTS = [
   'iq-imbalance',
   'image-rejection',
   'clipping',
+  'noise-floor',
+  'band-snr',
+  'imd',
+  'aclr',
 ] as const;
 export type Measurement = (typeof MEASUREMENTS)[number];
+
+/** Measurements that read a band: they need bandLow and bandHigh. */
+const BANDED: readonly string[] = ['channel-power', 'band-snr', 'aclr'];
 
 export const measureSchema = z
   .object({
@@ -40,13 +47,17 @@ export const measureSchema = z
     bandHigh: z.number().finite().optional(),
     harmonics: z.number().int().min(1).max(20).default(5),
     fitSamples: z.number().int().min(16).max(4_194_304).default(262_144),
+    aclrSpacing: z.number().finite().positive().optional(),
+    imdGainDb: z.number().finite().min(-300).max(300).optional(),
     calibrationDb: calibrationSchema,
   })
   .strict()
   .superRefine((p, ctx) => {
-    if (!p.measurements.includes('channel-power')) return;
-    if (p.bandLow === undefined) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['bandLow'], message: 'is required for channel-power (Hz)' });
-    if (p.bandHigh === undefined) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['bandHigh'], message: 'is required for channel-power (Hz)' });
+    const banded = p.measurements.filter((m) => BANDED.includes(m));
+    if (banded.length === 0) return;
+    const needs = `is required for ${banded.join(', ')} (Hz)`;
+    if (p.bandLow === undefined) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['bandLow'], message: needs });
+    if (p.bandHigh === undefined) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['bandHigh'], message: needs });
     if (p.bandLow !== undefined && p.bandHigh !== undefined && !(p.bandHigh > p.bandLow)) {
       ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['bandHigh'], message: `must be above bandLow (${p.bandLow} Hz)` });
     }
@@ -55,7 +66,23 @@ export const measureSchema = z
 export type MeasureParams = z.infer<typeof measureSchema>;
 
 // The fit-based readouts also need the spectrum: it finds the tone the fit starts from.
-const SPECTRAL: readonly Measurement[] = ['tone', 'snr', 'sinad', 'sfdr', 'enob', 'thd', 'harmonics', 'channel-power', 'obw', 'image-rejection', 'iq-imbalance'];
+const SPECTRAL: readonly Measurement[] = [
+  'tone',
+  'snr',
+  'sinad',
+  'sfdr',
+  'enob',
+  'thd',
+  'harmonics',
+  'channel-power',
+  'obw',
+  'image-rejection',
+  'iq-imbalance',
+  'noise-floor',
+  'band-snr',
+  'imd',
+  'aclr',
+];
 const FITTED: readonly Measurement[] = ['snr', 'sinad', 'enob', 'thd', 'harmonics'];
 
 function propagateIssues(params: MeasureParams, input: StreamFormat): ChainIssue[] {
@@ -63,7 +90,7 @@ function propagateIssues(params: MeasureParams, input: StreamFormat): ChainIssue
   if (params.measurements.includes('iq-imbalance') && input.sampleType !== 'complex') {
     issues.push({ severity: 'warning', code: 'measurement-needs-complex', field: 'measurements', message: 'iq-imbalance needs complex input; it is skipped for a real stream' });
   }
-  if (params.measurements.includes('channel-power') && params.bandLow !== undefined && params.bandHigh !== undefined) {
+  if (params.measurements.some((m) => BANDED.includes(m)) && params.bandLow !== undefined && params.bandHigh !== undefined) {
     const nyquist = input.sampleRate / 2;
     const lowest = input.sampleType === 'complex' ? -nyquist : 0;
     if (params.bandLow < lowest || params.bandHigh > nyquist) {
@@ -87,13 +114,23 @@ export const measureStage: StageDefinition<MeasureParams> = {
   fields: {
     measurements: {
       label: 'Measurements',
-      help: "Any of: tone (strongest component: frequency and level); snr, sinad, enob, thd, harmonics (from a sine fit of the strongest tone, IEEE Std 1241: no window limits them; harmonics 2..N with their aliased frequencies, real streams); sfdr (carrier over the largest spur, both as main-lobe power, dBc and dBFS); channel-power (needs bandLow and bandHigh); obw (99 % occupied bandwidth, ITU-R SM.328, DC lobe left out); dc; iq-imbalance (complex only: gain of Q relative to I, phase, and the image rejection they imply); image-rejection (complex only: tone over its image at -f, read from the spectrum); clipping (samples at or beyond full scale per channel, and crest factor). A readout that cannot be computed shows no value and says why.",
+      help: "Any of: tone (strongest component: frequency and level); snr, sinad, enob, thd, harmonics (from a sine fit of the strongest tone, IEEE Std 1241: no window limits them; harmonics 2..N with their aliased frequencies, real streams); sfdr (carrier over the largest spur, both as main-lobe power, dBc and dBFS); channel-power (needs bandLow and bandHigh); obw (99 % occupied bandwidth, ITU-R SM.328, DC lobe left out); dc; iq-imbalance (complex only: gain of Q relative to I, phase, and the image rejection they imply); image-rejection (complex only: tone over its image at -f, read from the spectrum); clipping (samples at or beyond full scale per channel, and crest factor); noise-floor (mean noise of a bin away from DC, the tone and its harmonics, and the noise spectral density in dBFS/Hz: one-sided for real streams, two-sided for complex); band-snr (tone over the noise inside bandLow..bandHigh); imd (two strongest tones: third-order products at 2 f1 - f2 and 2 f2 - f1, IMD3 in dBc and the output intercept OIP3 = P + (P - P3) / 2; IIP3 when imdGainDb is set); aclr (channel bandLow..bandHigh over the same-width channels aclrSpacing below and above). A readout that cannot be computed shows no value and says why.",
     },
     fftSize: fftSizeField,
     window: { ...windowField, help: 'Window of the measuring spectrum; blackman-harris keeps leakage below the noise of most captures.' },
     beta: betaField,
-    bandLow: { label: 'Band low edge', unit: 'Hz', help: 'Channel power: lower band edge (negative frequencies allowed for complex streams).' },
-    bandHigh: { label: 'Band high edge', unit: 'Hz', help: 'Channel power: upper band edge.' },
+    bandLow: { label: 'Band low edge', unit: 'Hz', help: 'Channel power, band SNR and ACLR: lower edge of the channel (negative frequencies allowed for complex streams).' },
+    bandHigh: { label: 'Band high edge', unit: 'Hz', help: 'Channel power, band SNR and ACLR: upper edge of the channel.' },
+    aclrSpacing: {
+      label: 'Adjacent channel spacing',
+      unit: 'Hz',
+      help: 'ACLR: centre-to-centre distance from the channel to each adjacent channel of the same width; empty means the channel width (channels side by side).',
+    },
+    imdGainDb: {
+      label: 'Gain for IIP3',
+      unit: 'dB',
+      help: 'Two-tone IMD: the gain of the device under test from its input to this point; IIP3 = OIP3 - gain. Empty: IIP3 is not given.',
+    },
     harmonics: {
       label: 'Harmonics',
       help: 'Real streams: harmonics 2..N of the tone count as distortion (in SINAD and THD, not in SNR); the harmonics table shows up to the 10th, at its aliased frequency.',
@@ -165,6 +202,8 @@ export const measureStage: StageDefinition<MeasureParams> = {
           calibrationDb: params.calibrationDb,
           bandLow: params.bandLow,
           bandHigh: params.bandHigh,
+          aclrSpacing: params.aclrSpacing,
+          imdGainDb: params.imdGainDb,
           samples,
           spectrum,
           moments,
