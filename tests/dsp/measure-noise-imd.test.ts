@@ -131,3 +131,72 @@ describe('ACLR', () => {
     expect(beyond['ACLR upper'].reason).toMatch(/beyond the spectrum/);
   });
 });
+
+describe('EVM and MER', () => {
+  /** Root-raised-cosine pulse at t symbol periods (closed form, e.g. Proakis, Digital Communications; roll-off b). */
+  function rrc(t: number, b: number): number {
+    if (t === 0) return 1 - b + (4 * b) / Math.PI;
+    if (Math.abs(Math.abs(t) - 1 / (4 * b)) < 1e-9) {
+      return (b / Math.SQRT2) * ((1 + 2 / Math.PI) * Math.sin(Math.PI / (4 * b)) + (1 - 2 / Math.PI) * Math.cos(Math.PI / (4 * b)));
+    }
+    return (Math.sin(Math.PI * t * (1 - b)) + 4 * b * t * Math.cos(Math.PI * t * (1 + b))) / (Math.PI * t * (1 - (4 * b * t) ** 2));
+  }
+
+  /** A shaped carrier of unit symbol energy after a unit-energy matched filter, plus complex noise of variance s2. */
+  function carrier(points: number[][], symbols: number, sps: number, s2: number, offsetCyclesPerSample: number, seed: number): Float32Array {
+    const random = seededRandom(seed);
+    const normal = gaussian(seededRandom(seed + 1));
+    const b = 0.35;
+    const half = 8 * sps;
+    const pulse = Array.from({ length: 2 * half + 1 }, (_, m) => rrc((m - half) / sps, b));
+    const norm = Math.sqrt(pulse.reduce((s, v) => s + v * v, 0));
+    const n = symbols * sps;
+    const re = new Float64Array(n);
+    const im = new Float64Array(n);
+    for (let k = 0; k < symbols; k++) {
+      const [pr, pi] = points[Math.floor(random() * points.length)];
+      for (let m = -half; m <= half; m++) {
+        const i = k * sps + m;
+        if (i < 0 || i >= n) continue;
+        re[i] += (pr * pulse[m + half]) / norm;
+        im[i] += (pi * pulse[m + half]) / norm;
+      }
+    }
+    const x = new Float32Array(2 * n);
+    for (let i = 0; i < n; i++) {
+      const a = 2 * Math.PI * offsetCyclesPerSample * i + 0.7;
+      x[2 * i] = re[i] * Math.cos(a) - im[i] * Math.sin(a) + Math.sqrt(s2 / 2) * normal();
+      x[2 * i + 1] = re[i] * Math.sin(a) + im[i] * Math.cos(a) + Math.sqrt(s2 / 2) * normal();
+    }
+    return x;
+  }
+
+  const qpsk = [[1, 1], [1, -1], [-1, 1], [-1, -1]].map(([i, q]) => [i / Math.SQRT2, q / Math.SQRT2]);
+  const qam16: number[][] = [];
+  for (const i of [-3, -1, 1, 3]) for (const q of [-3, -1, 1, 3]) qam16.push([i / Math.sqrt(10), q / Math.sqrt(10)]);
+
+  test.each([
+    ['qpsk', 20, qpsk],
+    ['qpsk', 30, qpsk],
+    ['qam16', 30, qam16],
+  ] as const)('%s at Es/N0 %i dB reads EVM 1/sqrt(Es/N0)', (modulation, esn0, points) => {
+    // 3GPP TS 36.104 / 38.104 (EVM definition); with additive white noise only EVM_rms ~
+    // 1 / sqrt(Es/N0): 20 dB gives 10 % (common practice, CHECKS.md).
+    const sps = 8;
+    const s2 = 10 ** (-esn0 / 10);
+    const x = carrier(points as number[][], 8192, sps, s2, 300 / 1e6, 41 + esn0);
+    const r = measure(x, complex, { measurements: ['evm'], symbolRate: fs / sps, modulation, rollOff: 0.35 });
+    const expected = 100 / Math.sqrt(10 ** (esn0 / 10));
+    expect(Math.abs(valueOf(r['EVM']) - expected) / expected).toBeLessThan(0.04);
+    expect(Math.abs(valueOf(r['MER']) - esn0)).toBeLessThan(0.35);
+    expect(valueOf(r['EVM (dB)'])).toBeCloseTo(20 * Math.log10(valueOf(r['EVM']) / 100), 9);
+    expect(Math.abs(valueOf(r['Carrier offset']) - 300)).toBeLessThan(5);
+  });
+
+  test('evm needs a symbol rate and a complex stream', () => {
+    expect(() => measure(new Float32Array(16), complex, { measurements: ['evm'] })).toThrow(/symbolRate/);
+    const r = measure(new Float32Array(4096).fill(0.1), real, { measurements: ['evm'], symbolRate: 1e5 });
+    expect(r['EVM'].value).toBeNull();
+    expect(r['EVM'].reason).toMatch(/complex/);
+  });
+});

@@ -22,3 +22,5 @@ export { noiseFloor, bandSnrDb, signalMask } from './noise';
 export type { NoiseFloor } from './noise';
 export { twoTone } from './two-tone';
 export type { TwoTone } from './two-tone';
+export { measureEvm } from './evm';
+export type { EvmOptions, EvmResult } from './evm';

@@ -14,6 +14,8 @@ import { imageRejectionDb, spectralImageRejection } from '../measure/image-rejec
 import { fitSine, type SineFit } from '../measure/sine-fit';
 import { notComputable, readout } from '../measure/readout';
 import { noiseReadouts } from './measure-noise-readouts';
+import { measureEvm } from '../measure/evm';
+import type { DigitalModulation } from '../synth/constellation';
 
 /** What the readouts are built from. */
 export interface MeasureInputs {
@@ -28,6 +30,8 @@ export interface MeasureInputs {
   bandHigh?: number;
   aclrSpacing?: number;
   imdGainDb?: number;
+  /** EVM settings (symbol rate in Hz, modulation, roll-off), when evm is asked for. */
+  evm?: { symbolRate: number; modulation: DigitalModulation; rollOff: number };
   /** Samples (complex samples for complex streams) that went through the stage. */
   samples: number;
   spectrum: MeasuredSpectrum | null;
@@ -247,6 +251,21 @@ export function measureReadouts(inputs: MeasureInputs): Readout[] {
         readout('I/Q gain imbalance', 20 * Math.log10(e.gainRatio), 'dB', { flags, definition: 'iq-gain-ellingson' }),
         readout('I/Q phase imbalance', (e.phaseRad * 180) / Math.PI, 'deg', { flags, definition: 'iq-phase-ellingson' }),
         readout('Image rejection', irr, 'dB', { flags, definition: 'irr-blind', reason: 'I and Q match exactly in gain and phase: the estimate leaves no image' }),
+      ];
+    });
+  }
+
+  if (wanted.has('evm')) {
+    const names: [string, string][] = [['EVM', '%'], ['EVM (dB)', 'dB'], ['MER', 'dB'], ['Carrier offset', 'Hz']];
+    const reason = dead ?? (!complex ? 'needs a complex stream with the carrier at 0 Hz' : !inputs.evm ? 'needs symbolRate' : !inputs.fitSamples ? 'no samples were kept' : null);
+    group(names, reason, () => {
+      const r = measureEvm(inputs.fitSamples!, { sampleRate: inputs.sampleRate, ...inputs.evm! });
+      const extras = { flags: common, reason: 'no error at all (a noise-free synthetic carrier)' };
+      return [
+        readout('EVM', 100 * r.evmRms, '%', { ...extras, definition: 'evm-rms' }),
+        readout('EVM (dB)', r.evmRms > 0 ? 20 * Math.log10(r.evmRms) : null, 'dB', { ...extras, definition: 'evm-rms' }),
+        readout('MER', r.merDb, 'dB', { ...extras, definition: 'mer' }),
+        readout('Carrier offset', r.frequencyOffsetHz, 'Hz', { flags: common, definition: 'evm-carrier-offset' }),
       ];
     });
   }

@@ -31,6 +31,7 @@ export const MEASUREMENTS = [
   'band-snr',
   'imd',
   'aclr',
+  'evm',
 ] as const;
 export type Measurement = (typeof MEASUREMENTS)[number];
 
@@ -49,10 +50,16 @@ export const measureSchema = z
     fitSamples: z.number().int().min(16).max(4_194_304).default(262_144),
     aclrSpacing: z.number().finite().positive().optional(),
     imdGainDb: z.number().finite().min(-300).max(300).optional(),
+    symbolRate: z.number().finite().positive().optional(),
+    modulation: z.enum(['bpsk', 'qpsk', 'qam16']).default('qpsk'),
+    rollOff: z.number().finite().min(0.05).max(1).default(0.35),
     calibrationDb: calibrationSchema,
   })
   .strict()
   .superRefine((p, ctx) => {
+    if (p.measurements.includes('evm') && p.symbolRate === undefined) {
+      ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['symbolRate'], message: 'is required for evm (symbols per second)' });
+    }
     const banded = p.measurements.filter((m) => BANDED.includes(m));
     if (banded.length === 0) return;
     const needs = `is required for ${banded.join(', ')} (Hz)`;
@@ -83,10 +90,14 @@ const SPECTRAL: readonly Measurement[] = [
   'imd',
   'aclr',
 ];
-const FITTED: readonly Measurement[] = ['snr', 'sinad', 'enob', 'thd', 'harmonics'];
+// These keep the last fitSamples samples: the sine fit and the EVM work on samples, not spectra.
+const FITTED: readonly Measurement[] = ['snr', 'sinad', 'enob', 'thd', 'harmonics', 'evm'];
 
 function propagateIssues(params: MeasureParams, input: StreamFormat): ChainIssue[] {
   const issues: ChainIssue[] = [];
+  if (params.measurements.includes('evm') && input.sampleType !== 'complex') {
+    issues.push({ severity: 'warning', code: 'measurement-needs-complex', field: 'measurements', message: 'evm needs a complex stream with the carrier at 0 Hz; it is not computed for a real stream' });
+  }
   if (params.measurements.includes('iq-imbalance') && input.sampleType !== 'complex') {
     issues.push({ severity: 'warning', code: 'measurement-needs-complex', field: 'measurements', message: 'iq-imbalance needs complex input; it is skipped for a real stream' });
   }
@@ -114,7 +125,7 @@ export const measureStage: StageDefinition<MeasureParams> = {
   fields: {
     measurements: {
       label: 'Measurements',
-      help: "Any of: tone (strongest component: frequency and level); snr, sinad, enob, thd, harmonics (from a sine fit of the strongest tone, IEEE Std 1241: no window limits them; harmonics 2..N with their aliased frequencies, real streams); sfdr (carrier over the largest spur, both as main-lobe power, dBc and dBFS); channel-power (needs bandLow and bandHigh); obw (99 % occupied bandwidth, ITU-R SM.328, DC lobe left out); dc; iq-imbalance (complex only: gain of Q relative to I, phase, and the image rejection they imply); image-rejection (complex only: tone over its image at -f, read from the spectrum); clipping (samples at or beyond full scale per channel, and crest factor); noise-floor (mean noise of a bin away from DC, the tone and its harmonics, and the noise spectral density in dBFS/Hz: one-sided for real streams, two-sided for complex); band-snr (tone over the noise inside bandLow..bandHigh); imd (two strongest tones: third-order products at 2 f1 - f2 and 2 f2 - f1, IMD3 in dBc and the output intercept OIP3 = P + (P - P3) / 2; IIP3 when imdGainDb is set); aclr (channel bandLow..bandHigh over the same-width channels aclrSpacing below and above). A readout that cannot be computed shows no value and says why.",
+      help: "Any of: tone (strongest component: frequency and level); snr, sinad, enob, thd, harmonics (from a sine fit of the strongest tone, IEEE Std 1241: no window limits them; harmonics 2..N with their aliased frequencies, real streams); sfdr (carrier over the largest spur, both as main-lobe power, dBc and dBFS); channel-power (needs bandLow and bandHigh); obw (99 % occupied bandwidth, ITU-R SM.328, DC lobe left out); dc; iq-imbalance (complex only: gain of Q relative to I, phase, and the image rejection they imply); image-rejection (complex only: tone over its image at -f, read from the spectrum); clipping (samples at or beyond full scale per channel, and crest factor); noise-floor (mean noise of a bin away from DC, the tone and its harmonics, and the noise spectral density in dBFS/Hz: one-sided for real streams, two-sided for complex); band-snr (tone over the noise inside bandLow..bandHigh); imd (two strongest tones: third-order products at 2 f1 - f2 and 2 f2 - f1, IMD3 in dBc and the output intercept OIP3 = P + (P - P3) / 2; IIP3 when imdGainDb is set); aclr (channel bandLow..bandHigh over the same-width channels aclrSpacing below and above); evm (complex stream with a root-raised-cosine BPSK/QPSK/16-QAM carrier moved to 0 Hz: RMS EVM in % and dB and MER, after matched filtering, symbol timing from symbolRate, and fitting carrier frequency, phase and gain). A readout that cannot be computed shows no value and says why.",
     },
     fftSize: fftSizeField,
     window: { ...windowField, help: 'Window of the measuring spectrum; blackman-harris keeps leakage below the noise of most captures.' },
@@ -126,6 +137,9 @@ export const measureStage: StageDefinition<MeasureParams> = {
       unit: 'Hz',
       help: 'ACLR: centre-to-centre distance from the channel to each adjacent channel of the same width; empty means the channel width (channels side by side).',
     },
+    symbolRate: { label: 'Symbol rate', unit: 'Hz', help: 'EVM: symbols per second of the carrier (2 to 64 samples per symbol; decimate first otherwise).' },
+    modulation: { label: 'Modulation', help: 'EVM: the reference constellation, bpsk, qpsk or qam16 (unit mean power).' },
+    rollOff: { label: 'Roll-off', help: 'EVM: roll-off of the root-raised-cosine matched filter; use the transmitter\'s (0.35 for the demo beacon).' },
     imdGainDb: {
       label: 'Gain for IIP3',
       unit: 'dB',
@@ -204,6 +218,7 @@ export const measureStage: StageDefinition<MeasureParams> = {
           bandHigh: params.bandHigh,
           aclrSpacing: params.aclrSpacing,
           imdGainDb: params.imdGainDb,
+          evm: params.symbolRate !== undefined ? { symbolRate: params.symbolRate, modulation: params.modulation, rollOff: params.rollOff } : undefined,
           samples,
           spectrum,
           moments,
