@@ -77,7 +77,12 @@ function solve(g: Float64Array, b: Float64Array, p: number): Float64Array | null
  * observed value); returns the coefficients and the residual mean square, computed in a second
  * pass so a residual 1e-10 of the signal power is not lost to cancellation.
  */
-function leastSquares(rows: number, p: number, row: (index: number, basis: Float64Array) => number): { coef: Float64Array; residual: number } | null {
+function leastSquares(
+  rows: number,
+  p: number,
+  row: (index: number, basis: Float64Array) => number,
+  withResidual = true,
+): { coef: Float64Array; residual: number } | null {
   const g = new Float64Array(p * p);
   const b = new Float64Array(p);
   const basis = new Float64Array(p);
@@ -93,6 +98,7 @@ function leastSquares(rows: number, p: number, row: (index: number, basis: Float
   const coef = solve(g, b, p);
   if (!coef) return null;
   let residual = 0;
+  if (!withResidual) return { coef, residual: NaN };
   for (let i = 0; i < rows; i++) {
     let e = row(i, basis);
     for (let r = 0; r < p; r++) e -= coef[r] * basis[r];
@@ -151,68 +157,99 @@ function coarseFrequency(x: Float32Array, complex: boolean, f0: number, halfWidt
   return 0.5 * (lo + hi);
 }
 
+/** Three-parameter fit at a known frequency f (Std 1241 4.1.4.2): tone quadratures and offset. */
+function threeParameter(x: Float32Array, complex: boolean, f: number, withResidual: boolean): { coef: Float64Array; residual: number } | null {
+  const n = complex ? x.length / 2 : x.length;
+  const mid = (n - 1) / 2;
+  const w = 2 * Math.PI * f;
+  if (complex) {
+    // A e^{jwt} + C, unknowns Ar, Ai, Cr, Ci; row i even is I, odd is Q.
+    return leastSquares(
+      2 * n,
+      4,
+      (i, basis) => {
+        const t = (i >> 1) - mid;
+        const c = Math.cos(w * t);
+        const s = Math.sin(w * t);
+        const even = (i & 1) === 0;
+        basis[0] = even ? c : s;
+        basis[1] = even ? -s : c;
+        basis[2] = even ? 1 : 0;
+        basis[3] = even ? 0 : 1;
+        return x[i];
+      },
+      withResidual,
+    );
+  }
+  return leastSquares(
+    n,
+    3,
+    (k, basis) => {
+      const t = k - mid;
+      basis[0] = Math.cos(w * t);
+      basis[1] = Math.sin(w * t);
+      basis[2] = 1;
+      return x[k];
+    },
+    withResidual,
+  );
+}
+
 /** Four-parameter fit (Std 1241 4.1.4.3): Gauss-Newton on frequency from a close start. */
 function fourParameter(x: Float32Array, complex: boolean, start: number): { f: number; coef: Float64Array; residual: number } | null {
   const n = complex ? x.length / 2 : x.length;
   const mid = (n - 1) / 2;
   let f = start;
-  let last: { f: number; coef: Float64Array; residual: number } | null = null;
   for (let iter = 0; iter < 12; iter++) {
-    // Three-parameter fit at f first (Std 1241 4.1.4.2), which gives the amplitudes the
-    // frequency derivative needs.
-    const w = 2 * Math.PI * f;
-    const three = complex
-      ? leastSquares(2 * n, 4, (i, basis) => {
-          const k = i >> 1;
-          const t = k - mid;
-          const c = Math.cos(w * t);
-          const s = Math.sin(w * t);
-          // A e^{jwt} + C, unknowns Ar, Ai, Cr, Ci; row i even is I, odd is Q.
-          if ((i & 1) === 0) basis.set([c, -s, 1, 0]);
-          else basis.set([s, c, 0, 1]);
-          return x[i];
-        })
-      : leastSquares(n, 3, (k, basis) => {
-          const t = k - mid;
-          basis[0] = Math.cos(w * t);
-          basis[1] = Math.sin(w * t);
-          basis[2] = 1;
-          return x[k];
-        });
-    if (!three) return last;
-    last = { f, coef: three.coef, residual: three.residual / n };
+    // The three-parameter fit at f gives the amplitudes the frequency derivative needs.
+    const three = threeParameter(x, complex, f, false);
+    if (!three) break;
     const [a, b] = [three.coef[0], three.coef[1]];
+    const w = 2 * Math.PI * f;
     // Linearised update: d/dw of the tone times dw, with t scaled by 1/n for conditioning.
     const four = complex
-      ? leastSquares(2 * n, 5, (i, basis) => {
-          const k = i >> 1;
-          const t = k - mid;
-          const c = Math.cos(w * t);
-          const s = Math.sin(w * t);
-          const u = t / n;
-          if ((i & 1) === 0) basis.set([c, -s, 1, 0, -u * (a * s + b * c)]);
-          else basis.set([s, c, 0, 1, u * (a * c - b * s)]);
-          return x[i];
-        })
-      : leastSquares(n, 4, (k, basis) => {
-          const t = k - mid;
-          const c = Math.cos(w * t);
-          const s = Math.sin(w * t);
-          const u = t / n;
-          basis[0] = c;
-          basis[1] = s;
-          basis[2] = 1;
-          basis[3] = u * (-a * s + b * c);
-          return x[k];
-        });
-    if (!four) return last;
-    const dw = four.coef[complex ? 4 : 3] / n;
-    const df = dw / (2 * Math.PI);
-    if (!Number.isFinite(df)) return last;
+      ? leastSquares(
+          2 * n,
+          5,
+          (i, basis) => {
+            const t = (i >> 1) - mid;
+            const c = Math.cos(w * t);
+            const s = Math.sin(w * t);
+            const u = t / n;
+            const even = (i & 1) === 0;
+            basis[0] = even ? c : s;
+            basis[1] = even ? -s : c;
+            basis[2] = even ? 1 : 0;
+            basis[3] = even ? 0 : 1;
+            basis[4] = even ? -u * (a * s + b * c) : u * (a * c - b * s);
+            return x[i];
+          },
+          false,
+        )
+      : leastSquares(
+          n,
+          4,
+          (k, basis) => {
+            const t = k - mid;
+            const c = Math.cos(w * t);
+            const s = Math.sin(w * t);
+            basis[0] = c;
+            basis[1] = s;
+            basis[2] = 1;
+            basis[3] = (t / n) * (-a * s + b * c);
+            return x[k];
+          },
+          false,
+        );
+    if (!four) break;
+    const df = four.coef[complex ? 4 : 3] / n / (2 * Math.PI);
+    if (!Number.isFinite(df)) break;
     f += Math.max(-0.5 / n, Math.min(0.5 / n, df));
-    if (Math.abs(df) < 1e-7 / n) break;
+    // 1e-6 cycles over the record leaves a phase error whose power is ~1e-11 of the tone's.
+    if (Math.abs(df) < 1e-6 / n) break;
   }
-  return last;
+  const final = threeParameter(x, complex, f, true);
+  return final ? { f, coef: final.coef, residual: final.residual / n } : null;
 }
 
 /**

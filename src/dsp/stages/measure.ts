@@ -47,7 +47,7 @@ export const measureSchema = z
     bandLow: z.number().finite().optional(),
     bandHigh: z.number().finite().optional(),
     harmonics: z.number().int().min(1).max(20).default(5),
-    fitSamples: z.number().int().min(16).max(4_194_304).default(262_144),
+    fitSamples: z.number().int().min(16).max(4_194_304).default(65_536),
     aclrSpacing: z.number().finite().positive().optional(),
     imdGainDb: z.number().finite().min(-300).max(300).optional(),
     symbolRate: z.number().finite().positive().optional(),
