@@ -311,3 +311,15 @@ describe('clipping and crest factor', () => {
     expect(c['SINAD'].flags ?? []).not.toContain('clipped');
   });
 });
+
+describe('captures shorter than the FFT size', () => {
+  test('spectral readouts are flagged as start-up transient', () => {
+    // Common practice: a segment shorter than the FFT is analysed with a shorter, zero-padded window.
+    const x = new Float32Array(1000).map((_, k) => 0.5 * Math.sin(0.3 * k));
+    const r = measure(x, real, { measurements: ['tone', 'sfdr', 'sinad'], fftSize: 8192 });
+    expect(r['Tone level'].flags).toContain('start-up-transient');
+    expect(r['SFDR'].flags ?? []).toContain('start-up-transient');
+    const long = measure(new Float32Array(1 << 14).map((_, k) => 0.5 * Math.sin(0.3 * k)), real, { measurements: ['tone'], fftSize: 1024 });
+    expect(long['Tone level'].flags ?? []).not.toContain('start-up-transient');
+  });
+});
