@@ -54,10 +54,32 @@ export interface ChainIssue {
 /** One measurement of a readout table. */
 export interface Readout {
   name: string;
-  value: number;
+  /** A finite number, or null when it could not be computed (`reason` then says why); never +/-Infinity or NaN. */
+  value: number | null;
   /** Unit as shown to people: `Hz`, `dB`, `dBFS`, `dBm`, `deg`, `%`, ... */
   unit: string;
+  /** Why `value` is null, in words (e.g. "the capture holds no signal: every sample is 0"). */
+  reason?: string;
+  /** Caveats on a value that was computed: see READOUT_FLAGS. */
+  flags?: ReadoutFlag[];
+  /** Stable id of the definition used (e.g. `sinad-sine-fit`); the README's readouts table lists each with its source. */
+  definition?: string;
 }
+
+/**
+ * Caveats a readout may carry:
+ * - `start-up-transient`: the capture is shorter than the FFT size, or a filter's start-up is a
+ *   large part of it; the figure includes the transient.
+ * - `holds-tone`: a DC readout whose lobe holds the strongest component (a tone mixed to 0 Hz).
+ * - `window-limited`: the window's leakage or the FFT's resolution bounds the figure; the truth is
+ *   better than the number.
+ * - `tone-at-dc`: the tone sits in the 0 Hz lobe; tone readouts measured it there, DC included.
+ * - `assumption-fails`: the estimator's assumption does not hold for this signal (e.g. blind I/Q
+ *   imbalance with a tone at 0 Hz or fs/2); read the value as indicative only.
+ * - `clipped`: samples reached full scale, so distortion figures include clipping.
+ */
+export const READOUT_FLAGS = ['start-up-transient', 'holds-tone', 'window-limited', 'tone-at-dc', 'assumption-fails', 'clipped'] as const;
+export type ReadoutFlag = (typeof READOUT_FLAGS)[number];
 
 /** A power spectrum ready to plot; 0 Hz centred for complex input (two-sided). */
 export interface SpectrumResult {
@@ -76,7 +98,7 @@ export interface SpectrumResult {
 
 /** A spectrogram image with a bounded size. `levels[row][column]`: row = time, column = frequency. */
 export interface SpectrogramResult {
-  /** Start time of each row in seconds from the start of the stream. */
+  /** Time of each row (s from the start of the stream): the centre of the samples the row covers. */
   times: number[];
   frequencies: number[];
   levels: number[][];

@@ -42,6 +42,20 @@ describe('dc-remove', () => {
     expect(Math.max(...Array.from(y, Math.abs))).toBe(0);
   });
 
+  it('blocker: a large first sample (a tone starting at its peak on top of DC) leaves no decaying step', () => {
+    // Common practice: the one-pole blocker's step response decays with time constant
+    // 1 / (1 - pole) samples. A blocker started from x[0] = DC + 0.4 would carry a -0.4 step that
+    // averages about -0.25 over its first time constant; primed from the mean, none is left.
+    const pole = 0.999;
+    const n = 20_000;
+    const x = new Float32Array(n).map((_, k) => 0.5 + 0.4 * Math.cos((2 * Math.PI * 50e3 * k) / fs));
+    const y = runStage(dcRemoveStage, { method: 'blocker', pole }, real, [x]);
+    const first = y.subarray(0, 1000).reduce((s, v) => s + v, 0) / 1000;
+    expect(Math.abs(first)).toBeLessThan(0.005);
+    // The tone itself passes from the first sample on (gain |H| at 50 kHz within 0.1 %).
+    expect(y[0]).toBeCloseTo(0.4, 2);
+  });
+
   it('rejects a pole outside 0.9..0.999999', () => {
     expect(dcRemoveStage.schema.safeParse({ method: 'blocker', pole: 0.5 }).success).toBe(false);
     expect(dcRemoveStage.schema.safeParse({ method: 'blocker', pole: 1 }).success).toBe(false);

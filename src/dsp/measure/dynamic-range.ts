@@ -4,6 +4,7 @@
  * not noise; noise in the bins left out is replaced by the mean noise of the other bins.
  */
 import { binOfFrequency, type MeasuredSpectrum } from './measured-spectrum';
+import { getFftPlan } from '../fft/plan';
 import { findTone, markLobe, type ToneReading } from './tone';
 
 export interface DynamicRangeOptions {
@@ -23,8 +24,54 @@ export interface DynamicRange {
   snrDb: number;
   /** Signal to noise-and-distortion ratio (dB). */
   sinadDb: number;
-  /** Tone peak bin over the highest other bin outside the DC and tone lobes (dBc). */
+  /**
+   * Carrier over the largest spur (dBc), each as its main-lobe power / ENBW (so neither scallops);
+   * the spur is the strongest bin outside the DC and carrier lobes, harmonics included.
+   */
   sfdrDb: number;
+  /** Full-scale tone (0.5 real, 1 complex) over the largest spur (dBFS, ADC data-sheet habit). */
+  sfdrDbfs: number;
+  /** Frequency (Hz) of the largest spur's peak bin. */
+  spurFrequency: number;
+  /**
+   * True when the largest spur is within 10 dB of the leakage the window's side lobes put there
+   * from the carrier alone: the SFDR then tells the window, not the signal.
+   */
+  spurWindowLimited: boolean;
+}
+
+/**
+ * Linear power the window's side lobes carry from `tone` alone into every bin (display order): a
+ * lone tone's leakage, scaled to the tone's peak bin. One FFT of the window turned to the tone's
+ * frequency gives W(k - f) at every bin k; a real tone adds its mirror at -f.
+ */
+export function toneLeakageSpectrum(spectrum: MeasuredSpectrum, tone: ToneReading): Float64Array {
+  const { fftSize, sampleRate, window } = spectrum;
+  const nu = (tone.frequency / sampleRate) * fftSize;
+  const input = new Float64Array(2 * fftSize);
+  for (let n = 0; n < window.length; n++) {
+    const ph = (2 * Math.PI * nu * n) / fftSize;
+    input[2 * n] = window[n] * Math.cos(ph);
+    input[2 * n + 1] = window[n] * Math.sin(ph);
+  }
+  const x = getFftPlan(fftSize).forward(input, new Float64Array(2 * fftSize));
+  const at = (m: number) => {
+    const i = ((m % fftSize) + fftSize) % fftSize;
+    return x[2 * i] * x[2 * i] + x[2 * i + 1] * x[2 * i + 1];
+  };
+  const complex = spectrum.sampleType === 'complex';
+  const n = spectrum.power.length;
+  const shape = new Float64Array(n);
+  for (let k = 0; k < n; k++) {
+    // Display bin k of a complex spectrum is natural bin k - fftSize/2; a real one's is k, plus
+    // the mirror's W(k + f), which (|W| even) is natural bin -k.
+    shape[k] = complex ? at(k - fftSize / 2) : at(k) + at(-k);
+  }
+  const reference = shape[tone.bin];
+  if (!(reference > 0)) return new Float64Array(n);
+  const scale = spectrum.power[tone.bin] / reference;
+  for (let k = 0; k < n; k++) shape[k] *= scale;
+  return shape;
 }
 
 /** SNR, SINAD and SFDR of the strongest tone of a measured spectrum. */
@@ -48,15 +95,15 @@ export function dynamicRange(spectrum: MeasuredSpectrum, options: DynamicRangeOp
 
   let noiseSum = 0;
   let noiseBins = 0;
-  let spur = 0;
+  let spurBin = -1;
   for (let k = 0; k < n; k++) {
     if (dcMask[k] || toneMask[k]) continue;
-    if (power[k] > spur) spur = power[k];
+    if (spurBin < 0 || power[k] > power[spurBin]) spurBin = k;
     if (harmonicMask[k]) continue;
     noiseSum += power[k];
     noiseBins++;
   }
-  if (noiseBins === 0) throw new RangeError('fftSize: too small to leave any noise bins outside the tone, harmonic and DC lobes');
+  if (noiseBins === 0 || spurBin < 0) throw new RangeError('fftSize: too small to leave any noise bins outside the tone, harmonic and DC lobes');
   const noisePerBin = noiseSum / noiseBins;
   const noisePower = (noisePerBin * n) / enbwBins;
 
@@ -69,13 +116,28 @@ export function dynamicRange(spectrum: MeasuredSpectrum, options: DynamicRangeOp
     }
   }
   const distortionPower = Math.max(0, (harmonicSum - noisePerBin * harmonicBins) / enbwBins);
-  const tonePeak = power[tone.bin];
+  // The spur's lobe stops where the carrier's or the DC lobe begins, so none is counted twice.
+  const spurMask = new Uint8Array(n);
+  markLobe(spurMask, spectrum, spurBin, lobe);
+  let spurSum = 0;
+  let leakSum = 0;
+  const leakage = toneLeakageSpectrum(spectrum, tone);
+  for (let k = 0; k < n; k++) {
+    if (!spurMask[k] || dcMask[k] || toneMask[k]) continue;
+    spurSum += power[k];
+    leakSum += leakage[k];
+  }
+  const spurPower = spurSum / enbwBins;
+  const fullScale = spectrum.sampleType === 'real' ? 0.5 : 1;
   return {
     tone,
     noisePower,
     distortionPower,
     snrDb: 10 * Math.log10(tone.power / noisePower),
     sinadDb: 10 * Math.log10(tone.power / (noisePower + distortionPower)),
-    sfdrDb: spur > 0 ? 10 * Math.log10(tonePeak / spur) : Infinity,
+    sfdrDb: 10 * Math.log10(tone.power / spurPower),
+    sfdrDbfs: 10 * Math.log10(fullScale / spurPower),
+    spurFrequency: spectrum.frequencies[spurBin],
+    spurWindowLimited: spurSum < 10 * leakSum,
   };
 }

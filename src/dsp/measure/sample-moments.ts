@@ -73,6 +73,14 @@ export class SampleMoments {
     return { dcI: this.shiftI + this.sumI / this.count, dcQ: this.shiftQ + this.sumQ / this.count };
   }
 
+  /** Mean square of I (or the real values) and of Q after their means are removed. */
+  centredPowers(): { ii: number; qq: number } {
+    if (this.count === 0) throw new RangeError('samples: none received, so no power');
+    const mi = this.sumI / this.count;
+    const mq = this.sumQ / this.count;
+    return { ii: Math.max(0, this.sumII / this.count - mi * mi), qq: Math.max(0, this.sumQQ / this.count - mq * mq) };
+  }
+
   /** Blind gain/phase imbalance (Ellingson 2003) of everything pushed; complex streams only. */
   imbalance(): IqImbalanceEstimate {
     if (!this.complex) throw new RangeError('sampleType: I/Q imbalance needs a complex stream');

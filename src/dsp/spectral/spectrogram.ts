@@ -123,7 +123,10 @@ export class SpectrogramAccumulator {
         line[k] = powerToDb(display[k] * scale * doubled, calibrationDb);
       }
       levels.push(line);
-      times.push((row.firstSegment * this.periodogram.hop) / this.sampleRate);
+      // Stamped at the centre of the samples the row covers (as scipy.signal.spectrogram stamps
+      // segment centres): first segment's centre to last segment's centre, mid-way.
+      const centreSample = (row.firstSegment + (row.count - 1) / 2) * this.periodogram.hop + this.fftSize / 2;
+      times.push(centreSample / this.sampleRate);
     }
     return {
       times,

@@ -1,21 +1,42 @@
 /**
- * measure: readouts of the stream, passed through unchanged. Spectral readouts (tone, SNR, SINAD,
- * SFDR, channel power, occupied bandwidth) come from a mean Welch spectrum with 'spectrum' scaling;
- * DC offset and the blind I/Q imbalance estimate (Ellingson 2003) from running sample moments, so
- * memory does not grow with the stream.
+ * measure: readouts of the stream, passed through unchanged. Spectral readouts (tone, SFDR, channel
+ * power, occupied bandwidth, measured image rejection) come from a mean Welch spectrum with
+ * 'spectrum' scaling; SNR, SINAD, ENOB, THD and harmonics from a sine fit (IEEE Std 1241) of the
+ * last `fitSamples` samples; DC offset and the blind I/Q imbalance estimate (Ellingson 2003) from
+ * running sample moments. Memory is bounded by fftSize and fitSamples, not by the stream.
  */
 import { z } from 'zod';
-import type { ChainIssue, Readout, StageDefinition, StreamFormat } from '../types';
-import { createMeasuringWelch, measuredSpectrum, type MeasuredSpectrum } from '../measure/measured-spectrum';
-import { SampleMoments, dcLevelDbfs } from '../measure/sample-moments';
-import { findTone } from '../measure/tone';
-import { dynamicRange } from '../measure/dynamic-range';
-import { channelPower, occupiedBandwidth } from '../measure/band';
-import { imageRejectionDb } from '../measure/image-rejection';
+import { valuesPerSample, type ChainIssue, type StageDefinition, type StreamFormat } from '../types';
+import { createMeasuringWelch, measuredSpectrum } from '../measure/measured-spectrum';
+import { SampleMoments } from '../measure/sample-moments';
+import { ClippingCounter } from '../measure/clipping';
+import { measureReadouts } from './measure-readouts';
 import { betaField, betaSchema, calibrationField, calibrationSchema, fftSizeField, fftSizeSchema, windowField, windowSchema } from './spectral-params';
 
-export const MEASUREMENTS = ['tone', 'snr', 'sinad', 'sfdr', 'channel-power', 'obw', 'dc', 'iq-imbalance'] as const;
+export const MEASUREMENTS = [
+  'tone',
+  'snr',
+  'sinad',
+  'sfdr',
+  'enob',
+  'thd',
+  'harmonics',
+  'channel-power',
+  'obw',
+  'dc',
+  'iq-imbalance',
+  'image-rejection',
+  'clipping',
+  'noise-floor',
+  'band-snr',
+  'imd',
+  'aclr',
+  'evm',
+] as const;
 export type Measurement = (typeof MEASUREMENTS)[number];
+
+/** Measurements that read a band: they need bandLow and bandHigh. */
+const BANDED: readonly string[] = ['channel-power', 'band-snr', 'aclr'];
 
 export const measureSchema = z
   .object({
@@ -26,13 +47,24 @@ export const measureSchema = z
     bandLow: z.number().finite().optional(),
     bandHigh: z.number().finite().optional(),
     harmonics: z.number().int().min(1).max(20).default(5),
+    fitSamples: z.number().int().min(16).max(4_194_304).default(65_536),
+    aclrSpacing: z.number().finite().positive().optional(),
+    imdGainDb: z.number().finite().min(-300).max(300).optional(),
+    symbolRate: z.number().finite().positive().optional(),
+    modulation: z.enum(['bpsk', 'qpsk', 'qam16']).default('qpsk'),
+    rollOff: z.number().finite().min(0.05).max(1).default(0.35),
     calibrationDb: calibrationSchema,
   })
   .strict()
   .superRefine((p, ctx) => {
-    if (!p.measurements.includes('channel-power')) return;
-    if (p.bandLow === undefined) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['bandLow'], message: 'is required for channel-power (Hz)' });
-    if (p.bandHigh === undefined) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['bandHigh'], message: 'is required for channel-power (Hz)' });
+    if (p.measurements.includes('evm') && p.symbolRate === undefined) {
+      ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['symbolRate'], message: 'is required for evm (symbols per second)' });
+    }
+    const banded = p.measurements.filter((m) => BANDED.includes(m));
+    if (banded.length === 0) return;
+    const needs = `is required for ${banded.join(', ')} (Hz)`;
+    if (p.bandLow === undefined) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['bandLow'], message: needs });
+    if (p.bandHigh === undefined) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['bandHigh'], message: needs });
     if (p.bandLow !== undefined && p.bandHigh !== undefined && !(p.bandHigh > p.bandLow)) {
       ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['bandHigh'], message: `must be above bandLow (${p.bandLow} Hz)` });
     }
@@ -40,14 +72,36 @@ export const measureSchema = z
 
 export type MeasureParams = z.infer<typeof measureSchema>;
 
-const SPECTRAL: readonly Measurement[] = ['tone', 'snr', 'sinad', 'sfdr', 'channel-power', 'obw'];
+// The fit-based readouts also need the spectrum: it finds the tone the fit starts from.
+const SPECTRAL: readonly Measurement[] = [
+  'tone',
+  'snr',
+  'sinad',
+  'sfdr',
+  'enob',
+  'thd',
+  'harmonics',
+  'channel-power',
+  'obw',
+  'image-rejection',
+  'iq-imbalance',
+  'noise-floor',
+  'band-snr',
+  'imd',
+  'aclr',
+];
+// These keep the last fitSamples samples: the sine fit and the EVM work on samples, not spectra.
+const FITTED: readonly Measurement[] = ['snr', 'sinad', 'enob', 'thd', 'harmonics', 'evm'];
 
 function propagateIssues(params: MeasureParams, input: StreamFormat): ChainIssue[] {
   const issues: ChainIssue[] = [];
+  if (params.measurements.includes('evm') && input.sampleType !== 'complex') {
+    issues.push({ severity: 'warning', code: 'measurement-needs-complex', field: 'measurements', message: 'evm needs a complex stream with the carrier at 0 Hz; it is not computed for a real stream' });
+  }
   if (params.measurements.includes('iq-imbalance') && input.sampleType !== 'complex') {
     issues.push({ severity: 'warning', code: 'measurement-needs-complex', field: 'measurements', message: 'iq-imbalance needs complex input; it is skipped for a real stream' });
   }
-  if (params.measurements.includes('channel-power') && params.bandLow !== undefined && params.bandHigh !== undefined) {
+  if (params.measurements.some((m) => BANDED.includes(m)) && params.bandLow !== undefined && params.bandHigh !== undefined) {
     const nyquist = input.sampleRate / 2;
     const lowest = input.sampleType === 'complex' ? -nyquist : 0;
     if (params.bandLow < lowest || params.bandHigh > nyquist) {
@@ -62,91 +116,47 @@ function propagateIssues(params: MeasureParams, input: StreamFormat): ChainIssue
   return issues;
 }
 
-/** The readouts asked for, from a finished spectrum and sample moments. */
-function readoutsOf(params: MeasureParams, spectrum: MeasuredSpectrum | null, moments: SampleMoments, complex: boolean): Readout[] {
-  const unit = params.calibrationDb !== 0 ? 'dBm' : 'dBFS';
-  const cal = params.calibrationDb;
-  const out: Readout[] = [];
-  const wanted = new Set(params.measurements);
-  if (spectrum) {
-    // A readout that cannot be formed from this spectrum (e.g. no band bins) is left out rather than failing the run.
-    const attempt = (fn: () => void) => {
-      try {
-        fn();
-      } catch (error) {
-        if (!(error instanceof RangeError)) throw error;
-      }
-    };
-    if (wanted.has('tone')) {
-      attempt(() => {
-        const tone = findTone(spectrum);
-        out.push({ name: 'Tone frequency', value: tone.frequency, unit: 'Hz' }, { name: 'Tone level', value: tone.levelDbfs + cal, unit });
-      });
-    }
-    if (wanted.has('snr') || wanted.has('sinad') || wanted.has('sfdr')) {
-      attempt(() => {
-        const r = dynamicRange(spectrum, { harmonics: params.harmonics });
-        if (wanted.has('snr')) out.push({ name: 'SNR', value: r.snrDb, unit: 'dB' });
-        if (wanted.has('sinad')) out.push({ name: 'SINAD', value: r.sinadDb, unit: 'dB' });
-        if (wanted.has('sfdr')) out.push({ name: 'SFDR', value: r.sfdrDb, unit: 'dBc' });
-      });
-    }
-    if (wanted.has('channel-power') && params.bandLow !== undefined && params.bandHigh !== undefined) {
-      const [low, high] = [params.bandLow, params.bandHigh];
-      attempt(() => out.push({ name: 'Channel power', value: 10 * Math.log10(channelPower(spectrum, low, high)) + cal, unit }));
-    }
-    if (wanted.has('obw')) {
-      attempt(() => {
-        const obw = occupiedBandwidth(spectrum);
-        out.push(
-          { name: 'Occupied bandwidth (99 %)', value: obw.bandwidthHz, unit: 'Hz' },
-          { name: 'Occupied band lower edge', value: obw.lowHz, unit: 'Hz' },
-          { name: 'Occupied band upper edge', value: obw.highHz, unit: 'Hz' },
-        );
-      });
-    }
-  }
-  if (moments.samples > 0 && wanted.has('dc')) {
-    const { dcI, dcQ } = moments.means();
-    if (complex) {
-      out.push(
-        { name: 'DC offset I', value: dcI, unit: 'FS' },
-        { name: 'DC offset Q', value: dcQ, unit: 'FS' },
-        { name: 'DC offset I level', value: dcLevelDbfs(dcI), unit: 'dBFS' },
-        { name: 'DC offset Q level', value: dcLevelDbfs(dcQ), unit: 'dBFS' },
-        { name: 'DC level', value: dcLevelDbfs(Math.hypot(dcI, dcQ)), unit: 'dBFS' },
-      );
-    } else {
-      out.push({ name: 'DC offset', value: dcI, unit: 'FS' }, { name: 'DC level', value: dcLevelDbfs(dcI), unit: 'dBFS' });
-    }
-  }
-  if (moments.samples > 0 && complex && wanted.has('iq-imbalance')) {
-    const e = moments.imbalance();
-    out.push(
-      { name: 'I/Q gain imbalance', value: 20 * Math.log10(e.gainRatio), unit: 'dB' },
-      { name: 'I/Q phase imbalance', value: (e.phaseRad * 180) / Math.PI, unit: 'deg' },
-      { name: 'Image rejection', value: imageRejectionDb(e.gainRatio, e.phaseRad), unit: 'dB' },
-    );
-  }
-  return out;
-}
-
 export const measureStage: StageDefinition<MeasureParams> = {
   kind: 'measure',
   title: 'Measure',
-  summary: 'Readouts of the stream: tone, SNR, SINAD, SFDR, channel power, 99 % occupied bandwidth, DC offset and I/Q imbalance; the samples pass through unchanged.',
+  summary:
+    'Readouts of the stream: tone, SNR, SINAD, SFDR, ENOB, THD and harmonics, channel power, 99 % occupied bandwidth, DC offset, I/Q imbalance, image rejection and clipping; the samples pass through unchanged.',
   schema: measureSchema,
   fields: {
     measurements: {
       label: 'Measurements',
-      help: "Any of tone, snr, sinad, sfdr, channel-power (needs bandLow and bandHigh), obw (99 % occupied bandwidth), dc, iq-imbalance (complex only: gain, phase and the image rejection they imply).",
+      help: "Any of: tone (strongest component: frequency and level); snr, sinad, enob, thd, harmonics (from a sine fit of the strongest tone, IEEE Std 1241: no window limits them; harmonics 2..N with their aliased frequencies, real streams); sfdr (carrier over the largest spur, both as main-lobe power, dBc and dBFS); channel-power (needs bandLow and bandHigh); obw (99 % occupied bandwidth, ITU-R SM.328, DC lobe left out); dc; iq-imbalance (complex only: gain of Q relative to I, phase, and the image rejection they imply); image-rejection (complex only: tone over its image at -f, read from the spectrum); clipping (samples at or beyond full scale per channel, and crest factor); noise-floor (mean noise of a bin away from DC, the tone and its harmonics, and the noise spectral density in dBFS/Hz: one-sided for real streams, two-sided for complex); band-snr (tone over the noise inside bandLow..bandHigh); imd (two strongest tones: third-order products at 2 f1 - f2 and 2 f2 - f1, IMD3 in dBc and the output intercept OIP3 = P + (P - P3) / 2; IIP3 when imdGainDb is set); aclr (channel bandLow..bandHigh over the same-width channels aclrSpacing below and above); evm (complex stream with a root-raised-cosine BPSK/QPSK/16-QAM carrier moved to 0 Hz: RMS EVM in % and dB and MER, after matched filtering, symbol timing from symbolRate, and fitting carrier frequency, phase and gain). A readout that cannot be computed shows no value and says why.",
     },
     fftSize: fftSizeField,
-    window: { ...windowField, help: 'Window of the measuring spectrum; blackman-harris keeps leakage below the noise of most captures.' },
+    window: {
+      ...windowField,
+      help: "Window of the measuring spectrum (tone, SFDR, noise floor, IMD, image rejection, bands). Its side lobes bound what those can show: blackman-harris (-92 dB) suits most captures; for a 14- to 16-bit ADC or a spur below -90 dBc use kaiser with beta 20 or more. A figure the window cannot resolve is withheld and says so. SNR, SINAD, ENOB, THD and harmonics come from a sine fit and do not depend on the window.",
+    },
     beta: betaField,
-    bandLow: { label: 'Band low edge', unit: 'Hz', help: 'Channel power: lower band edge (negative frequencies allowed for complex streams).' },
-    bandHigh: { label: 'Band high edge', unit: 'Hz', help: 'Channel power: upper band edge.' },
-    harmonics: { label: 'Harmonics', help: 'Real streams: harmonics 2..N of the tone count as distortion (SINAD, not SNR).' },
+    bandLow: { label: 'Band low edge', unit: 'Hz', help: 'Channel power, band SNR and ACLR: lower edge of the channel (negative frequencies allowed for complex streams).' },
+    bandHigh: { label: 'Band high edge', unit: 'Hz', help: 'Channel power, band SNR and ACLR: upper edge of the channel.' },
+    aclrSpacing: {
+      label: 'Adjacent channel spacing',
+      unit: 'Hz',
+      help: 'ACLR: centre-to-centre distance from the channel to each adjacent channel of the same width; empty means the channel width (channels side by side).',
+    },
+    symbolRate: { label: 'Symbol rate', unit: 'Hz', help: 'EVM: symbols per second of the carrier (2 to 64 samples per symbol; decimate first otherwise).' },
+    modulation: { label: 'Modulation', help: 'EVM: the reference constellation, bpsk, qpsk or qam16 (unit mean power).' },
+    rollOff: { label: 'Roll-off', help: 'EVM: roll-off of the root-raised-cosine matched filter; use the transmitter\'s (0.35 for the demo beacon).' },
+    imdGainDb: {
+      label: 'Gain for IIP3',
+      unit: 'dB',
+      help: 'Two-tone IMD: the gain of the device under test from its input to this point; IIP3 = OIP3 - gain. Empty: IIP3 is not given.',
+    },
+    harmonics: {
+      label: 'Harmonics',
+      help: 'Real streams: harmonics 2..N of the tone count as distortion (in SINAD and THD, not in SNR); the harmonics table shows up to the 10th, at its aliased frequency.',
+    },
+    fitSamples: {
+      label: 'Fit length',
+      unit: 'samples',
+      help: 'SNR, SINAD, ENOB, THD and harmonics fit a sine to the last this-many samples of the stream (after any filter has settled); longer is steadier and slower.',
+    },
     calibrationDb: calibrationField,
   },
   accepts: ['real', 'complex'],
@@ -160,13 +170,27 @@ export const measureStage: StageDefinition<MeasureParams> = {
       ? createMeasuringWelch({ sampleRate: input.sampleRate, sampleType: complex ? 'complex' : 'real', fftSize: params.fftSize, window: params.window, beta: params.beta })
       : null;
     const moments = new SampleMoments(complex);
+    const clipping = new ClippingCounter(complex);
+    const width = valuesPerSample(input.sampleType);
+    // A ring of the last fitSamples samples for the sine fit.
+    const ring = params.measurements.some((m) => FITTED.includes(m)) ? new Float32Array(params.fitSamples * width) : null;
+    let written = 0;
     const empty = new Float32Array(0);
     let samples = 0;
     return {
       process(block) {
         welch?.push(block);
         moments.push(block);
-        samples += block.length;
+        clipping.push(block);
+        if (ring) {
+          const tail = block.length > ring.length ? block.subarray(block.length - ring.length) : block;
+          const at = (written + block.length - tail.length) % ring.length;
+          const first = Math.min(tail.length, ring.length - at);
+          ring.set(tail.subarray(0, first), at);
+          ring.set(tail.subarray(first), 0);
+          written += block.length;
+        }
+        samples += block.length / width;
         return block;
       },
       finish() {
@@ -175,7 +199,36 @@ export const measureStage: StageDefinition<MeasureParams> = {
       },
       probe() {
         const spectrum = welch && samples > 0 ? measuredSpectrum(welch, params.window, params.beta) : null;
-        return { readouts: readoutsOf(params, spectrum, moments, complex) };
+        let fitSamples: Float32Array | null = null;
+        if (ring && written > 0) {
+          if (written <= ring.length) fitSamples = ring.slice(0, written);
+          else {
+            const at = written % ring.length;
+            fitSamples = new Float32Array(ring.length);
+            fitSamples.set(ring.subarray(at), 0);
+            fitSamples.set(ring.subarray(0, at), ring.length - at);
+          }
+        }
+        const readouts = measureReadouts({
+          measurements: params.measurements,
+          complex,
+          sampleRate: input.sampleRate,
+          fftSize: params.fftSize,
+          window: params.window,
+          harmonics: params.harmonics,
+          calibrationDb: params.calibrationDb,
+          bandLow: params.bandLow,
+          bandHigh: params.bandHigh,
+          aclrSpacing: params.aclrSpacing,
+          imdGainDb: params.imdGainDb,
+          evm: params.symbolRate !== undefined ? { symbolRate: params.symbolRate, modulation: params.modulation, rollOff: params.rollOff } : undefined,
+          samples,
+          spectrum,
+          moments,
+          clipping,
+          fitSamples,
+        });
+        return { readouts };
       },
     };
   },

@@ -24,7 +24,10 @@ export const windowField: FieldInfo = {
   label: 'Window',
   help: 'Periodic window applied to each segment: hann (general use), blackman-harris (-92 dB side lobes, for spurs), flattop (accurate tone levels), kaiser (shape set by beta).',
 };
-export const betaField: FieldInfo = { label: 'Kaiser beta', help: 'Kaiser window only: larger beta gives lower side lobes and a wider main lobe (8.6: about -69 dB).' };
+export const betaField: FieldInfo = {
+  label: 'Kaiser beta',
+  help: 'Kaiser window only: larger beta gives lower side lobes and a wider main lobe. Highest side lobe measured on the window itself: beta 5: -37 dB, 8.6: -63 dB, 12: -90 dB, 20: -155 dB, 30: -238 dB.',
+};
 export const fftSizeField: FieldInfo = { label: 'FFT size', unit: 'samples', help: 'Segment length; the bin spacing is sample rate / FFT size.' };
 export const overlapField: FieldInfo = { label: 'Overlap', help: 'Fraction of each segment shared with the next, 0 to 0.95 (0.5 is usual for Hann).' };
 export const scalingField: FieldInfo = {
