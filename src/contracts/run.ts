@@ -91,6 +91,8 @@ export const comparedReadoutSchema = z.object({
   baseline: z.string().nullable(),
   /** value - baseline value per run id, in the readout's unit (dB for levels). */
   differences: z.record(z.number().nullable()),
+  /** Why a run has no value for this readout, per run id (only runs whose value is null with a reason). */
+  reasons: z.record(z.string()).optional(),
 });
 export type ComparedReadout = z.infer<typeof comparedReadoutSchema>;
 

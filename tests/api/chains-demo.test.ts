@@ -13,7 +13,7 @@ import { demoChains } from '@/lib/server/seed/chains';
 const revA = demoSynthSpecs.find((capture) => capture.slug === 'saltmarsh-rev-a-beacon')!.spec;
 const samples = synthesize(revA);
 
-async function readoutsOf(chainName: string): Promise<Map<string, number>> {
+async function readoutsOf(chainName: string): Promise<Map<string, number | null>> {
   const chain = demoChains.find((candidate) => candidate.name === chainName)!;
   const result = await runChain(assertChainDocument(chain.document), { sampleRate: 4e6, sampleType: 'complex' }, [samples]);
   expect(result.issues).toEqual([]);

@@ -47,10 +47,16 @@ describe('run figures', () => {
     expect(levelColumn('dBFS/Hz')).toBe('level_dBFS_per_Hz');
     expect(levelColumn('dBm')).toBe('level_dBm');
     const testPoints = [
-      { stageId: 'm', kind: 'measure', format: { sampleRate: 1, sampleType: 'real' as const }, plots: [], readouts: [{ name: 'SNR, in band', value: 41.5, unit: 'dB' }, { name: 'Tone', value: null, unit: 'dBFS' }] },
+      { stageId: 'm', kind: 'measure', format: { sampleRate: 1, sampleType: 'real' as const }, plots: [], readouts: [{ name: 'SNR, in band', value: 41.5, unit: 'dB' }, { name: 'Tone', value: null, unit: 'dBFS', reason: 'every sample is 0' }, { name: 'DC', value: -3, unit: 'dBFS', flags: ['holds-tone' as const, 'clipped' as const], definition: 'dc-mean' }] },
     ];
     const csv = readoutsCsv({ testPoints });
-    expect(csv).toBe('probe,name,value,unit\r\nm,"SNR, in band",41.5,dB\r\nm,Tone,,dBFS\r\n');
+    // RFC 4180: a cell holding a comma is quoted; an empty cell is nothing between the commas.
+    expect(csv).toBe(
+      'probe,name,value,unit,flags,reason,definition\r\n' +
+        'm,"SNR, in band",41.5,dB,,,\r\n' +
+        'm,Tone,,dBFS,,every sample is 0,\r\n' +
+        'm,DC,-3,dBFS,holds-tone clipped,,dc-mean\r\n',
+    );
   });
 
   it('reduces spectra and traces to the width, keeping peaks and extremes', () => {

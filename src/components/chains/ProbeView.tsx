@@ -7,6 +7,7 @@ import { plotLevels, spectrogramTrace } from '@/components/plots/figures';
 import { usePlotTheme } from '@/components/plots/plot-theme';
 import { formatQuantity } from '@/lib/units';
 import type { PreviewProbe } from './preview-protocol';
+import { readoutNote } from '@/components/runs/readout-notes';
 
 export default function ProbeView({ probe, stale }: { probe: PreviewProbe; stale: boolean }) {
   return (
@@ -69,7 +70,10 @@ function Readouts({ probe }: { probe: PreviewProbe }) {
             <th scope="row" className="py-1 pr-4 text-left font-normal text-muted">
               {r.name}
             </th>
-            <td className="py-1 text-right font-mono tabular-nums">{formatQuantity(r.value, r.unit, r.unit === 'Hz' ? { significant: 7 } : {})}</td>
+            <td className="py-1 text-right font-mono tabular-nums" title={readoutNote(r) || undefined}>
+              {r.value === null ? <span className="text-muted">—</span> : formatQuantity(r.value, r.unit, r.unit === 'Hz' ? { significant: 7 } : {})}
+              {readoutNote(r) && <span className="block text-xs font-sans text-muted">{readoutNote(r)}</span>}
+            </td>
           </tr>
         ))}
       </tbody>

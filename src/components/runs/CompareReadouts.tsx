@@ -86,7 +86,7 @@ function RunCells({ row, runId, baseline }: { row: ComparedReadout; runId: strin
   return (
     <>
       <td className="py-1.5 pl-4 pr-3 text-right align-baseline">
-        <ReadoutValue value={value} unit={row.unit} />
+        <ReadoutValue value={value} unit={row.unit} reason={row.reasons?.[runId]} />
       </td>
       {!baseline && (
         <td

@@ -13,10 +13,10 @@ export function fullScaleText(value: number): string {
 }
 
 /** A readout value with its unit in the monospace face; null shows a dash. */
-export function ReadoutValue({ value, unit, signed }: { value: number | null; unit: string; signed?: boolean }) {
+export function ReadoutValue({ value, unit, signed, reason }: { value: number | null; unit: string; signed?: boolean; reason?: string }) {
   if (value === null || !Number.isFinite(value)) {
     return (
-      <span className="font-mono text-muted" title="Not measurable on this capture">
+      <span className="font-mono text-muted" title={reason ?? 'Not measurable on this capture'}>
         —
       </span>
     );

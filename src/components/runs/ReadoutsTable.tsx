@@ -2,6 +2,7 @@ import { useMemo } from 'react';
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from '@tanstack/react-table';
 import { ReadoutValue } from './ReadoutValue';
 import type { TestPoint } from './types';
+import { readoutNote } from './readout-notes';
 
 /** One measurement of one probe. */
 export interface ReadoutRow {
@@ -9,11 +10,14 @@ export interface ReadoutRow {
   name: string;
   value: number | null;
   unit: string;
+  /** Why there is no value, or the caveats on the value ('' when none). */
+  note: string;
+  reason?: string;
 }
 
 /** Every readout of every test point, in chain order. */
 export function readoutRows(testPoints: TestPoint[]): ReadoutRow[] {
-  return testPoints.flatMap((point) => point.readouts.map((r) => ({ probe: point.stageId, name: r.name, value: r.value, unit: r.unit })));
+  return testPoints.flatMap((point) => point.readouts.map((r) => ({ probe: point.stageId, name: r.name, value: r.value, unit: r.unit, note: readoutNote(r), reason: r.reason })));
 }
 
 const column = createColumnHelper<ReadoutRow>();
@@ -28,10 +32,18 @@ const columns = [
       return previous && previous.original.probe === getValue() ? null : <span className="font-mono text-xs text-muted">{getValue()}</span>;
     },
   }),
-  column.accessor('name', { header: 'Measurement', cell: ({ getValue }) => <span className="whitespace-normal">{getValue()}</span> }),
+  column.accessor('name', {
+    header: 'Measurement',
+    cell: ({ row }) => (
+      <span className="whitespace-normal">
+        {row.original.name}
+        {row.original.note && <span className="block text-xs text-muted" data-testid="readout-note">{row.original.note}</span>}
+      </span>
+    ),
+  }),
   column.accessor('value', {
     header: 'Value',
-    cell: ({ row }) => <ReadoutValue value={row.original.value} unit={row.original.unit} />,
+    cell: ({ row }) => <ReadoutValue value={row.original.value} unit={row.original.unit} reason={row.original.reason} />,
     meta: { numeric: true },
   }),
 ];

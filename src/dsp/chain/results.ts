@@ -6,7 +6,7 @@
  * levels in the spectrum's unit. JSON has no -Infinity or NaN: such levels are null.
  */
 import { z } from 'zod';
-import type { ChainIssue, ProbeOutput, StreamFormat } from '../types';
+import { READOUT_FLAGS, type ChainIssue, type ProbeOutput, type Readout, type StreamFormat } from '../types';
 import type { ChainDocument } from './document';
 
 /** Level in a spectrum's unit, or null where the engine had -Infinity or NaN. */
@@ -29,7 +29,18 @@ export const chainIssueSchema = z.object({
 
 export const spectrumUnitSchema = z.enum(['dBFS/Hz', 'dBFS', 'dBm/Hz', 'dBm']);
 
-export const resultReadoutSchema = z.object({ name: z.string(), value: level, unit: z.string() });
+/**
+ * One readout: a value, or null with the reason it could not be computed; flags state caveats on a
+ * computed value; definition names the published definition used (the README's readouts table).
+ */
+export const resultReadoutSchema = z.object({
+  name: z.string(),
+  value: level,
+  unit: z.string(),
+  reason: z.string().optional(),
+  flags: z.array(z.enum(READOUT_FLAGS)).optional(),
+  definition: z.string().optional(),
+});
 
 export const resultSpectrumSchema = z.object({
   unit: spectrumUnitSchema,
@@ -123,8 +134,20 @@ export interface ResultsInput {
   format: StreamFormat;
 }
 
-function finiteOrNull(value: number): number | null {
-  return Number.isFinite(value) ? value : null;
+function finiteOrNull(value: number | null): number | null {
+  return value !== null && Number.isFinite(value) ? value : null;
+}
+
+/** A readout as results.json holds it: optional facts only when present. */
+function readoutJson(r: Readout): z.infer<typeof resultReadoutSchema> {
+  const value = finiteOrNull(r.value);
+  const out: z.infer<typeof resultReadoutSchema> = { name: r.name, value, unit: r.unit };
+  // A value the engine reported but JSON cannot hold still needs a reason beside its null.
+  const reason = r.reason ?? (value === null && r.value !== null ? 'the value is not a finite number' : undefined);
+  if (reason) out.reason = reason;
+  if (r.flags && r.flags.length > 0) out.flags = [...r.flags];
+  if (r.definition) out.definition = r.definition;
+  return out;
 }
 
 function probeResults(probe: ProbeOutput): ResultProbe {
@@ -140,7 +163,7 @@ function probeResults(probe: ProbeOutput): ResultProbe {
       levels: s.levels.map(finiteOrNull),
     };
   }
-  if (probe.readouts) out.readouts = probe.readouts.map((r) => ({ name: r.name, value: finiteOrNull(r.value), unit: r.unit }));
+  if (probe.readouts) out.readouts = probe.readouts.map(readoutJson);
   if (probe.spectrogram) {
     const g = probe.spectrogram;
     out.spectrogram = { times: g.times, frequencies: g.frequencies, levels: g.levels.map((row) => row.map(finiteOrNull)), unit: g.unit };

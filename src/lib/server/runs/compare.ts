@@ -53,6 +53,7 @@ export function compareResults(runs: ComparedRunData[], width: number): { spectr
           readouts.set(key, entry);
         }
         entry.values[runId] = readout.value;
+        if (readout.value === null && readout.reason) entry.reasons = { ...entry.reasons, [runId]: readout.reason };
       }
     }
   }

@@ -43,9 +43,9 @@ export function spectrumCsv(spectrum: Pick<SpectrumPlotData, 'frequencies' | 'le
 
 /** CSV of every readout of every test point, in chain order. */
 export function readoutsCsv(summary: Pick<RunSummary, 'testPoints'>): string {
-  const lines: (string | number | null)[][] = [['probe', 'name', 'value', 'unit']];
+  const lines: (string | number | null)[][] = [['probe', 'name', 'value', 'unit', 'flags', 'reason', 'definition']];
   for (const point of summary.testPoints) {
-    for (const readout of point.readouts) lines.push([point.stageId, readout.name, readout.value, readout.unit]);
+    for (const r of point.readouts) lines.push([point.stageId, r.name, r.value, r.unit, (r.flags ?? []).join(' '), r.reason ?? '', r.definition ?? '']);
   }
   return rows(lines);
 }
