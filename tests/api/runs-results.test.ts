@@ -111,12 +111,14 @@ describe('results', () => {
     expect((await engineer.get(`/api/runs/${run.id}/export?format=csv-spectrum&probe=meas`)).body.error).toMatchObject({ code: 'no_spectrum', field: 'probe' });
 
     const readouts = (await download(engineer, `/api/runs/${run.id}/export?format=csv-readouts`)).bytes.toString('utf8').trimEnd().split('\r\n');
-    expect(readouts[0]).toBe('probe,name,value,unit');
-    const expected = results.probes.flatMap((probe: any) => (probe.readouts ?? []).map((r: any) => [probe.stageId, r.name, r.value, r.unit]));
+    expect(readouts[0]).toBe('probe,name,value,unit,flags,reason,definition');
+    const expected = results.probes.flatMap((probe: any) =>
+      (probe.readouts ?? []).map((r: any) => [probe.stageId, r.name, r.value, r.unit, (r.flags ?? []).join(' '), r.reason ?? '', r.definition ?? '']),
+    );
     expect(expected.length).toBeGreaterThan(3);
     const parsed = readouts.slice(1).map((line) => {
-      const [probe, name, value, unit] = line.split(',');
-      return [probe, name, value === '' ? null : Number(value), unit];
+      const [probe, name, value, unit, flags, reason, definition] = csvCells(line);
+      return [probe, name, value === '' ? null : Number(value), unit, flags, reason, definition];
     });
     expect(parsed).toEqual(expected);
 
@@ -230,3 +232,31 @@ describe('event stream', () => {
     await waitForRun(engineer, privateRun.id, finished);
   }, 180_000);
 });
+
+/** The cells of one CSV line as RFC 4180 writes them: quoted cells may hold commas and doubled quotes. */
+function csvCells(line: string): string[] {
+  const cells: string[] = [];
+  let at = 0;
+  while (at <= line.length) {
+    if (line[at] === '"') {
+      let text = '';
+      at++;
+      while (at < line.length) {
+        if (line[at] === '"' && line[at + 1] === '"') {
+          text += '"';
+          at += 2;
+        } else if (line[at] === '"') {
+          at++;
+          break;
+        } else text += line[at++];
+      }
+      cells.push(text);
+      at++; // the comma after the closing quote
+    } else {
+      const end = line.indexOf(',', at);
+      cells.push(line.slice(at, end === -1 ? line.length : end));
+      at = end === -1 ? line.length + 1 : end + 1;
+    }
+  }
+  return cells;
+}
