@@ -57,6 +57,7 @@ export default function UserMenu({ name, email, role }: UserMenuProps) {
         type="button"
         aria-expanded={open}
         aria-controls={panelId}
+        aria-label={`${name}, ${ROLE_LABELS[role]}: account menu`}
         onClick={() => setOpen((o) => !o)}
         className="flex items-center gap-2 rounded-md py-1 pl-1 pr-2 text-sm hover:bg-surface"
         data-testid="user-menu-button"
@@ -64,7 +65,7 @@ export default function UserMenu({ name, email, role }: UserMenuProps) {
         <span aria-hidden="true" className="grid h-7 w-7 place-items-center rounded-full bg-accent/15 text-xs font-semibold text-accent">
           {initials(name)}
         </span>
-        <span className="flex flex-col items-start leading-tight">
+        <span className="hidden flex-col items-start leading-tight sm:flex">
           <span className="font-medium text-ink">{name}</span>
           <span className="text-xs text-muted">{ROLE_LABELS[role]}</span>
         </span>
