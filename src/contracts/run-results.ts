@@ -5,15 +5,7 @@
  * with the plot kinds each has) and the reduced plot data of each kind.
  */
 import { z } from 'zod';
-import {
-  chainIssueSchema,
-  resultProbeSchema,
-  resultReadoutSchema,
-  resultSpectrumSchema,
-  runResultsSchema,
-  spectrumUnitSchema,
-  streamFormatSchema,
-} from '@/dsp/chain/results';
+import { resultReadoutSchema, resultSpectrumSchema, runResultsSchema, spectrumUnitSchema, streamFormatSchema } from '@/dsp/chain/results';
 
 export {
   chainIssueSchema,
@@ -23,7 +15,7 @@ export {
   runResultsSchema,
   spectrumUnitSchema,
   streamFormatSchema,
-};
+} from '@/dsp/chain/results';
 export type { ResultProbe, ResultReadout, ResultSpectrum, ResultSpectrogram, ResultTrace, RunResults } from '@/dsp/chain/results';
 
 export const plotKinds = ['spectrum', 'spectrogram', 'trace', 'constellation'] as const;
