@@ -2,11 +2,6 @@
  * Shapes of the captures API calls and the page event that tells islands the captures changed.
  * The calls themselves are query functions and mutation hooks in ./queries.
  */
-import { fetchCaptureList } from './queries';
-
-// The runs dialogs still import the list function from here.
-export { fetchCaptureList };
-
 /** Filters, sort and page of the captures list, as the list endpoint names them. */
 export interface CaptureListParams {
   q?: string;

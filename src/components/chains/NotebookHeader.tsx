@@ -5,7 +5,7 @@
  */
 import { useState } from 'react';
 import { buttonPrimary, buttonSecondary, buttonSmall } from '@/components/ui';
-import type { Chain } from './api';
+import type { Chain } from '@/contracts/chain';
 import { RunOnCapturesButton } from '@/components/runs/RunOnCapturesDialog';
 
 export type ViewMode = 'cells' | 'json' | 'split';
