@@ -56,6 +56,16 @@ export const captureDescriptionSchema = z.object({
   annotations: z.array(z.record(z.unknown())),
 });
 
+/**
+ * What the owner may change of a capture (a PATCH body): descriptive fields only, each optional.
+ * Annotations stay unknown here: the server checks them as SigMF against the capture's length.
+ */
+export const captureChangesSchema = captureDescriptionSchema
+  .pick({ name: true, notes: true, tags: true, visibility: true, centerFrequency: true })
+  .extend({ annotations: z.array(z.unknown()) })
+  .partial();
+export type CaptureChanges = z.infer<typeof captureChangesSchema>;
+
 /** A capture as the API presents it: the base every other capture shape is cut from. */
 export const captureSchema = captureDescriptionSchema.extend({
   id: z.string(),

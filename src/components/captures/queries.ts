@@ -5,7 +5,8 @@
  */
 import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { apiJson, queryString } from '@/components/query/fetch';
-import type { CaptureChanges, CaptureListParams } from './api';
+import type { CaptureChanges } from '@/contracts/capture';
+import type { CaptureListParams } from './api';
 import type { Capture, CaptureList } from './types';
 
 const base = (id: string) => `/api/captures/${encodeURIComponent(id)}`;

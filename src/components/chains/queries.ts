@@ -5,7 +5,7 @@
 import { keepPreviousData, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import type { ChainChange } from '@/lib/chain-diff';
 import { apiJson, queryString } from '@/components/query/fetch';
-import { storedChainDocumentOf, type Chain, type ChainList, type ChainWithRevision, type RevisionSummary, type RevisionWithDocument, type StoredChainDocument } from '@/contracts/chain';
+import { storedChainDocumentOf, type Chain, type ChainChanges, type ChainList, type ChainWithRevision, type RevisionSummary, type RevisionWithDocument, type StoredChainDocument } from '@/contracts/chain';
 import type { Visibility } from '@/contracts/capture';
 import type { ChainListParams } from './list-state';
 
@@ -104,7 +104,7 @@ export function useForkChain() {
 export function useUpdateChain() {
   const refresh = useRefreshChains();
   return useMutation({
-    mutationFn: ({ id, ...body }: { id: string; name?: string; description?: string; visibility?: Visibility }) => apiJson<Chain>('PATCH', base(id), body),
+    mutationFn: ({ id, ...body }: { id: string } & ChainChanges) => apiJson<Chain>('PATCH', base(id), body),
     onSuccess: refresh,
   });
 }
