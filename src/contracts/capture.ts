@@ -88,6 +88,25 @@ export const captureSchema = captureDescriptionSchema.extend({
 });
 export type Capture = z.infer<typeof captureSchema>;
 
+/** A user's storage against their quota (bytes), shown beside the captures list. */
+export const storageUsageSchema = z.object({
+  storedBytes: z.number().nonnegative(),
+  quotaBytes: z.number().nonnegative(),
+  largestCaptureBytes: z.number().nonnegative(),
+  captureCount: z.number().int().nonnegative(),
+});
+export type StorageUsage = z.infer<typeof storageUsageSchema>;
+
+/** One page of the captures list, with the user's storage usage. */
+export const captureListSchema = z.object({
+  items: z.array(captureSchema),
+  total: z.number().int().nonnegative(),
+  page: z.number().int().positive(),
+  pageSize: z.number().int().positive(),
+  usage: storageUsageSchema,
+});
+export type CaptureList = z.infer<typeof captureListSchema>;
+
 /** The fields that say what stream a capture feeds into a chain. */
 export const captureFormatSchema = captureSchema.pick({ sampleRate: true, layout: true, centerFrequency: true });
 export type CaptureFormat = z.infer<typeof captureFormatSchema>;
