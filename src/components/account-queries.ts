@@ -7,7 +7,7 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { PresentedAccount } from '@/lib/server/presenters/user';
 import { apiJson } from '@/components/query/fetch';
 
-export const accountKeys = { all: ['accounts'] as const };
+const accountKeys = { all: ['accounts'] as const };
 
 const accountUrl = (id: string) => `/api/admin/users/${encodeURIComponent(id)}`;
 
