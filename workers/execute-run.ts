@@ -11,7 +11,8 @@ import { streamFormatOf } from '@/contracts/capture';
 import { ENGINE_VERSION } from '@/dsp/version';
 import { ObjectNotFoundError, type ObjectStore } from '@/lib/server/storage';
 import { probeDataEntries, summarizeResults } from '@/lib/server/runs/probe-data';
-import type { RunFailure, RunJob, WorkerMessage, WorkerOutcome } from '@/lib/server/runs/protocol';
+import type { PresentedRunError } from '@/contracts/run';
+import type { RunJob, WorkerMessage, WorkerOutcome } from '@/lib/server/runs/protocol';
 import { OutputSink, outputDatatype } from './output-sink';
 
 export interface ExecuteOptions {
@@ -33,7 +34,7 @@ async function* decodedBlocks(stream: Readable, decoder: SampleDecoder): AsyncGe
 }
 
 /** Where a thrown error places the failure: a stage and its input sample, or the capture itself. */
-export function describeFailure(error: unknown): RunFailure {
+export function describeFailure(error: unknown): PresentedRunError {
   if (error instanceof ChainRunError) {
     return { message: error.message, stageId: error.stageId || null, kind: error.kind || 'chain', sampleIndex: error.sampleIndex };
   }

@@ -28,7 +28,7 @@ export type CaptureOptions = Partial<Pick<Capture, 'datatype' | 'sampleRate'>> &
 };
 
 /** An opened capture: what it holds and a way to stream its samples once or more. */
-export interface CaptureSource {
+export interface OpenedCapture {
   kind: 'sigmf' | 'wav' | 'raw';
   /** The file the user named and the file holding the samples. */
   path: string;
@@ -48,7 +48,7 @@ export interface CaptureSource {
 const DEFAULT_READ_BYTES = 1 << 20;
 
 /** Open a capture by file name; InputError names the field when something does not fit. */
-export function openCapture(path: string, options: CaptureOptions = {}): CaptureSource {
+export function openCapture(path: string, options: CaptureOptions = {}): OpenedCapture {
   if (!existsSync(path)) throw new InputError(`input: ${path}: no such file`);
   const ext = extname(path).toLowerCase();
   if (ext === '.sigmf-meta' || ext === '.sigmf-data') return openSigmf(path, options);
@@ -67,7 +67,7 @@ function optionalFrequency(value: number | undefined, field: string): number | u
   return value;
 }
 
-function openSigmf(path: string, options: CaptureOptions): CaptureSource {
+function openSigmf(path: string, options: CaptureOptions): OpenedCapture {
   const base = path.replace(/\.sigmf-(meta|data)$/i, '');
   const metaPath = `${base}.sigmf-meta`;
   const dataPath = `${base}.sigmf-data`;
@@ -91,7 +91,7 @@ function openSigmf(path: string, options: CaptureOptions): CaptureSource {
   return rawLike('sigmf', path, dataPath, shape.datatype, layout, sampleRate, centerFrequency, options, meta);
 }
 
-function openRaw(path: string, options: CaptureOptions): CaptureSource {
+function openRaw(path: string, options: CaptureOptions): OpenedCapture {
   if (options.datatype === undefined) {
     throw new InputError(`--datatype: needed for a raw capture (${basename(path)} is not .sigmf-meta or .wav), e.g. --datatype cf32_le`);
   }
@@ -105,7 +105,7 @@ function openRaw(path: string, options: CaptureOptions): CaptureSource {
 function rawLike(
   kind: 'sigmf' | 'raw', path: string, dataPath: string, datatype: Datatype, layout: SampleType,
   sampleRate: number, centerFrequency: number | undefined, options: CaptureOptions, meta?: SigmfMeta,
-): CaptureSource {
+): OpenedCapture {
   const dataBytes = statSync(dataPath).size;
   const bytesPerSample = (datatype.bits / 8) * valuesPerSample(layout);
   if (dataBytes % bytesPerSample !== 0) {
@@ -127,7 +127,7 @@ function rawLike(
   };
 }
 
-function openWav(path: string, options: CaptureOptions): CaptureSource {
+function openWav(path: string, options: CaptureOptions): OpenedCapture {
   if (options.datatype !== undefined) throw new InputError('--datatype: only for raw captures; a WAV file states its own sample format');
   const wanted = options.layout !== undefined ? parseLayout(options.layout, '--layout') : undefined;
   const asComplex = wanted === 'complex';

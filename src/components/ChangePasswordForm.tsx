@@ -1,13 +1,16 @@
 import { useState, type SyntheticEvent } from 'react';
 import { Field, FormMessage } from './forms/Field';
-import { requestJson } from '@/components/query/fetch';
+import { settled } from '@/components/query/fetch';
+import { useChangePassword } from './account-queries';
+import { withQueryClient } from './table/withQueryClient';
 import { MIN_PASSWORD, useFormFields } from './forms/useFormFields';
 import { buttonPrimary } from './ui';
 
 type FieldName = 'currentPassword' | 'newPassword' | 'confirmPassword';
 
 /** Change-password form: posts to /api/account/password and shows each error beside its field. */
-export default function ChangePasswordForm() {
+function ChangePasswordForm() {
+  const changePassword = useChangePassword();
   const { values, setValues, setErrors, busy, setBusy, ready, bind } = useFormFields<FieldName>({ currentPassword: '', newPassword: '', confirmPassword: '' });
   const [formMessage, setFormMessage] = useState<{ tone: 'error' | 'ok'; text: string } | null>(null);
 
@@ -24,10 +27,7 @@ export default function ChangePasswordForm() {
     if (Object.keys(found).length > 0) return;
 
     setBusy(true);
-    const result = await requestJson('POST', '/api/account/password', {
-      currentPassword: values.currentPassword,
-      newPassword: values.newPassword,
-    });
+    const result = await settled(changePassword.mutateAsync({ currentPassword: values.currentPassword, newPassword: values.newPassword }));
     setBusy(false);
     if (result.ok) {
       setValues({ currentPassword: '', newPassword: '', confirmPassword: '' });
@@ -51,3 +51,5 @@ export default function ChangePasswordForm() {
     </form>
   );
 }
+
+export default withQueryClient(ChangePasswordForm, 0);

@@ -1,13 +1,16 @@
 import { useState, type SyntheticEvent } from 'react';
 import { Field, FormMessage } from './forms/Field';
-import { requestJson } from '@/components/query/fetch';
+import { settled } from '@/components/query/fetch';
+import { useSetup } from './account-queries';
+import { withQueryClient } from './table/withQueryClient';
 import { MIN_PASSWORD, useFormFields } from './forms/useFormFields';
 import { buttonPrimary } from './ui';
 
 type FieldName = 'email' | 'name' | 'password';
 
 /** First-run form on an installation without accounts: creates the admin via /api/setup and signs it in. */
-export default function SetupForm() {
+function SetupForm() {
+  const setup = useSetup();
   const { values, setErrors, busy, setBusy, ready, bind } = useFormFields<FieldName>({ email: '', name: '', password: '' });
   const [formError, setFormError] = useState<string | null>(null);
 
@@ -22,7 +25,7 @@ export default function SetupForm() {
     if (Object.keys(found).length > 0) return;
 
     setBusy(true);
-    const result = await requestJson('POST', '/api/setup', { email: values.email.trim(), name: values.name.trim(), password: values.password });
+    const result = await settled(setup.mutateAsync({ email: values.email.trim(), name: values.name.trim(), password: values.password }));
     if (result.ok) {
       window.location.assign('/');
       return;
@@ -45,3 +48,5 @@ export default function SetupForm() {
     </form>
   );
 }
+
+export default withQueryClient(SetupForm, 0);

@@ -1,6 +1,8 @@
 import { useEffect, useRef, useState, type SyntheticEvent } from 'react';
 import { Field, FormMessage } from './forms/Field';
-import { requestJson } from '@/components/query/fetch';
+import { settled } from '@/components/query/fetch';
+import { useSignIn } from './account-queries';
+import { withQueryClient } from './table/withQueryClient';
 import { buttonPrimary } from './ui';
 
 type FieldName = 'email' | 'password';
@@ -11,7 +13,8 @@ export interface SignInFormProps {
 }
 
 /** E-mail and password form; posts JSON to /api/auth/sign-in and shows each error beside its field. */
-export default function SignInForm({ next }: SignInFormProps) {
+function SignInForm({ next }: SignInFormProps) {
+  const signIn = useSignIn();
   const [email, setEmail] = useState('');
   const [password, setPassword] = useState('');
   const [fieldErrors, setFieldErrors] = useState<Partial<Record<FieldName, string>>>({});
@@ -40,7 +43,7 @@ export default function SignInForm({ next }: SignInFormProps) {
     }
 
     setBusy(true);
-    const result = await requestJson<{ user: unknown }>('POST', '/api/auth/sign-in', { email: email.trim(), password });
+    const result = await settled(signIn.mutateAsync({ email: email.trim(), password }));
     if (result.ok) {
       window.location.assign(next);
       return;
@@ -88,3 +91,5 @@ export default function SignInForm({ next }: SignInFormProps) {
     </form>
   );
 }
+
+export default withQueryClient(SignInForm, 0);

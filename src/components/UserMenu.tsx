@@ -1,5 +1,7 @@
 import { useEffect, useId, useRef, useState } from 'react';
-import { requestJson } from './query/fetch';
+import { settled } from './query/fetch';
+import { useSignOut } from './account-queries';
+import { withQueryClient } from './table/withQueryClient';
 import { ROLE_LABELS } from './roles';
 
 export interface UserMenuProps {
@@ -9,7 +11,8 @@ export interface UserMenuProps {
 }
 
 /** The signed-in user's menu: who is signed in, a link to the account page, and sign-out. */
-export default function UserMenu({ name, email, role }: UserMenuProps) {
+function UserMenu({ name, email, role }: UserMenuProps) {
+  const signOutCall = useSignOut();
   const [open, setOpen] = useState(false);
   const [signingOut, setSigningOut] = useState(false);
   const [problem, setProblem] = useState<string | null>(null);
@@ -40,7 +43,7 @@ export default function UserMenu({ name, email, role }: UserMenuProps) {
   async function signOut() {
     setSigningOut(true);
     setProblem(null);
-    const result = await requestJson<null>('POST', '/api/auth/sign-out');
+    const result = await settled(signOutCall.mutateAsync());
     // 401 means the session had already ended: the sign-in page is the right place either way.
     if (result.ok || result.status === 401) {
       window.location.assign('/sign-in');
@@ -108,6 +111,8 @@ export default function UserMenu({ name, email, role }: UserMenuProps) {
     </div>
   );
 }
+
+export default withQueryClient(UserMenu, 0);
 
 /** Up to two initials from a display name, for the avatar circle. */
 function initials(name: string): string {

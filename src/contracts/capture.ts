@@ -56,6 +56,16 @@ export const captureDescriptionSchema = z.object({
   annotations: z.array(z.record(z.unknown())),
 });
 
+/**
+ * What the owner may change of a capture (a PATCH body): descriptive fields only, each optional.
+ * Annotations stay unknown here: the server checks them as SigMF against the capture's length.
+ */
+export const captureChangesSchema = captureDescriptionSchema
+  .pick({ name: true, notes: true, tags: true, visibility: true, centerFrequency: true })
+  .extend({ annotations: z.array(z.unknown()) })
+  .partial();
+export type CaptureChanges = z.infer<typeof captureChangesSchema>;
+
 /** A capture as the API presents it: the base every other capture shape is cut from. */
 export const captureSchema = captureDescriptionSchema.extend({
   id: z.string(),
@@ -77,6 +87,25 @@ export const captureSchema = captureDescriptionSchema.extend({
   permissions: z.object({ update: z.boolean(), delete: z.boolean() }),
 });
 export type Capture = z.infer<typeof captureSchema>;
+
+/** A user's storage against their quota (bytes), shown beside the captures list. */
+export const storageUsageSchema = z.object({
+  storedBytes: z.number().nonnegative(),
+  quotaBytes: z.number().nonnegative(),
+  largestCaptureBytes: z.number().nonnegative(),
+  captureCount: z.number().int().nonnegative(),
+});
+export type StorageUsage = z.infer<typeof storageUsageSchema>;
+
+/** One page of the captures list, with the user's storage usage. */
+export const captureListSchema = z.object({
+  items: z.array(captureSchema),
+  total: z.number().int().nonnegative(),
+  page: z.number().int().positive(),
+  pageSize: z.number().int().positive(),
+  usage: storageUsageSchema,
+});
+export type CaptureList = z.infer<typeof captureListSchema>;
 
 /** The fields that say what stream a capture feeds into a chain. */
 export const captureFormatSchema = captureSchema.pick({ sampleRate: true, layout: true, centerFrequency: true });

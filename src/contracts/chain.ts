@@ -74,6 +74,10 @@ export const chainSchema = z.object({
 });
 export type Chain = z.infer<typeof chainSchema>;
 
+/** What the owner may change of a chain itself (a PATCH body); documents change only by new revisions. */
+export const chainChangesSchema = chainSchema.pick({ name: true, description: true, visibility: true }).partial();
+export type ChainChanges = z.infer<typeof chainChangesSchema>;
+
 /** A revision in the history list (without its document). */
 export const revisionSummarySchema = z.object({
   chainId: z.string(),

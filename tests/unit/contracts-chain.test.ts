@@ -5,7 +5,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import {
-  chainSchema, readStoredChainDocument, revisionSchema, StoredChainDocumentError, type StoredChainDocument,
+  chainSchema, readStoredChainDocument, revisionSchema, storedChainDocumentOf, StoredChainDocumentError, type StoredChainDocument,
 } from '@/contracts/chain';
 import { prepareDocument } from '@/lib/server/chains/document';
 import { presentChain, presentRevision } from '@/lib/server/chains/presenters';
@@ -54,10 +54,10 @@ describe('stored chain documents', () => {
     expect(revisionSchema.parse(good).document.stages[0]!.id).toBe('shift');
   });
 
-  it('the run dialog says why a tampered document cannot run instead of running it', () => {
+  it('the run dialog reads an answered document through the contract: a tampered one is refused with its field, a good one checked against the capture', () => {
     const capture = { sampleRate: 1e6, layout: 'complex' as const, centerFrequency: null };
-    expect(runBlocker(JSON.parse(prepareDocument(source).json), capture)).toBeNull();
-    expect(runBlocker({ version: 1, name: '', stages: [{ kind: 'mix' }] }, capture)).toMatch(/stages\[0\]\.id/);
+    expect(runBlocker(storedChainDocumentOf(JSON.parse(prepareDocument(source).json)), capture)).toBeNull();
+    expect(() => storedChainDocumentOf({ version: 1, name: '', stages: [{ kind: 'mix' }] })).toThrow(/stages\[0\]\.id/);
   });
 });
 

@@ -1,7 +1,8 @@
 import { useState, type SyntheticEvent } from 'react';
 import type { PresentedAccount } from '@/lib/server/presenters/user';
 import { Field, FormMessage } from '../forms/Field';
-import { requestJson } from '@/components/query/fetch';
+import { settled } from '@/components/query/fetch';
+import { useCreateAccount } from '../account-queries';
 import { ROLE_LABELS } from '../roles';
 import { buttonPrimary, input as inputClass, label as labelClass } from '../ui';
 import { MIN_PASSWORD_LENGTH as MIN_PASSWORD } from '@/lib/password-rules';
@@ -13,12 +14,13 @@ type Role = PresentedAccount['role'];
 
 const EMPTY = { email: '', name: '', role: 'engineer' as Role, password: '' };
 
-/** Form to create an account; calls back with the created account so the table can show it. */
-export function CreateAccountForm({ onCreated, ready }: { onCreated: (account: PresentedAccount) => void; ready: boolean }) {
+/** Form to create an account; the mutation puts the new account in the accounts list. */
+export function CreateAccountForm({ ready }: { ready: boolean }) {
   const [values, setValues] = useState(EMPTY);
   const [errors, setErrors] = useState<Partial<Record<FieldName, string>>>({});
   const [message, setMessage] = useState<{ tone: 'error' | 'ok'; text: string } | null>(null);
   const [busy, setBusy] = useState(false);
+  const createAccount = useCreateAccount();
 
   const set = (name: FieldName) => (e: { target: { value: string } }) => setValues((v) => ({ ...v, [name]: e.target.value }));
 
@@ -34,16 +36,10 @@ export function CreateAccountForm({ onCreated, ready }: { onCreated: (account: P
     if (Object.keys(found).length > 0) return;
 
     setBusy(true);
-    const result = await requestJson<{ user?: PresentedAccount } & Partial<PresentedAccount>>('POST', '/api/admin/users', {
-      email: values.email.trim(),
-      name: values.name.trim(),
-      role: values.role,
-      password: values.password,
-    });
+    const result = await settled(createAccount.mutateAsync({ email: values.email.trim(), name: values.name.trim(), role: values.role, password: values.password }));
     setBusy(false);
     if (result.ok) {
-      const account = (result.data.user ?? result.data) as PresentedAccount;
-      onCreated(account);
+      const account = result.data;
       setValues(EMPTY);
       setMessage({
         tone: 'ok',

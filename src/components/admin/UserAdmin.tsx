@@ -1,7 +1,9 @@
 import { useEffect, useState } from 'react';
 import type { PresentedAccount } from '@/lib/server/presenters/user';
 import { FormMessage } from '../forms/Field';
-import { requestJson } from '@/components/query/fetch';
+import { settled } from '@/components/query/fetch';
+import { withQueryClient } from '../table/withQueryClient';
+import { useAccounts, useUpdateAccount } from '../account-queries';
 import { ROLE_LABELS } from '../roles';
 import { CreateAccountForm } from './CreateAccountForm';
 import { UsersTable } from './UsersTable';
@@ -13,8 +15,9 @@ export interface UserAdminProps {
 }
 
 /** The admin's accounts screen: the table of accounts and the form to create one. */
-export default function UserAdmin({ initialAccounts, currentUserId }: UserAdminProps) {
-  const [accounts, setAccounts] = useState(initialAccounts);
+function UserAdmin({ initialAccounts, currentUserId }: UserAdminProps) {
+  const accounts = useAccounts(initialAccounts).data;
+  const updateAccount = useUpdateAccount();
   const [savingId, setSavingId] = useState<string | null>(null);
   const [message, setMessage] = useState<{ tone: 'error' | 'ok'; text: string } | null>(null);
   const [ready, setReady] = useState(false);
@@ -23,18 +26,12 @@ export default function UserAdmin({ initialAccounts, currentUserId }: UserAdminP
   async function patch(account: PresentedAccount, changes: { role?: PresentedAccount['role']; disabled?: boolean }, done: string) {
     setSavingId(account.id);
     setMessage(null);
-    const result = await requestJson<{ user?: PresentedAccount } & Partial<PresentedAccount>>(
-      'PATCH',
-      `/api/admin/users/${encodeURIComponent(account.id)}`,
-      changes,
-    );
+    const result = await settled(updateAccount.mutateAsync({ id: account.id, changes }));
     setSavingId(null);
     if (!result.ok) {
       setMessage({ tone: 'error', text: `${account.email}: ${result.error.message}` });
       return;
     }
-    const updated = (result.data.user ?? result.data) as PresentedAccount;
-    setAccounts((list) => list.map((a) => (a.id === account.id ? { ...a, ...updated } : a)));
     setMessage({ tone: 'ok', text: done });
   }
 
@@ -66,8 +63,11 @@ export default function UserAdmin({ initialAccounts, currentUserId }: UserAdminP
         <h2 id="create-title" className="mb-4 text-lg font-semibold">
           Create an account
         </h2>
-        <CreateAccountForm ready={ready} onCreated={(account) => setAccounts((list) => [...list, account])} />
+        <CreateAccountForm ready={ready} />
       </section>
     </div>
   );
 }
+
+// Accounts change only through this screen (or another admin's): the rendered list is fresh for a while.
+export default withQueryClient(UserAdmin, 30_000);

@@ -1,12 +1,7 @@
 /**
- * Shapes of the captures API calls and the page event that tells islands the captures changed.
+ * The captures list parameters and the page event that tells islands the captures changed.
  * The calls themselves are query functions and mutation hooks in ./queries.
  */
-import { fetchCaptureList } from './queries';
-
-// The runs dialogs still import the list function from here.
-export { fetchCaptureList };
-
 /** Filters, sort and page of the captures list, as the list endpoint names them. */
 export interface CaptureListParams {
   q?: string;
@@ -24,15 +19,6 @@ export interface CaptureListParams {
   pageSize: number;
 }
 
-/** Fields the owner may change. */
-export interface CaptureChanges {
-  name?: string;
-  notes?: string;
-  tags?: string[];
-  visibility?: 'private' | 'team';
-  centerFrequency?: number | null;
-  annotations?: Record<string, unknown>[];
-}
 
 /** Event the upload and synthesis islands send so the captures table reloads. */
 export const CAPTURES_CHANGED = 'quadrille:captures-changed';

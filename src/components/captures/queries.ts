@@ -3,9 +3,10 @@
  * reads are cached under `['captures', ...]` (annotations under their own key), writes are
  * mutations that refresh the lists they changed.
  */
-import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { apiJson, queryString } from '@/components/query/fetch';
-import type { CaptureChanges, CaptureListParams } from './api';
+import type { CaptureChanges } from '@/contracts/capture';
+import type { CaptureListParams } from './api';
 import type { Capture, CaptureList } from './types';
 
 const base = (id: string) => `/api/captures/${encodeURIComponent(id)}`;
@@ -13,6 +14,11 @@ const base = (id: string) => `/api/captures/${encodeURIComponent(id)}`;
 /** One page of captures (the list table's query function). */
 export function fetchCaptureList(params: CaptureListParams): Promise<CaptureList> {
   return apiJson<CaptureList>('GET', `/api/captures?${queryString(params)}`);
+}
+
+/** One page of captures as a query (pickers); the previous page stays while the next loads. */
+export function useCaptureList(params: CaptureListParams) {
+  return useQuery({ queryKey: ['captures', 'list', params], queryFn: () => fetchCaptureList(params), placeholderData: keepPreviousData });
 }
 
 /** One capture as the API presents it. */

@@ -4,25 +4,7 @@
  */
 import type { SampleType } from '@/dsp/types';
 
-export type { Capture } from '@/contracts/capture';
-import type { Capture } from '@/contracts/capture';
-
-/** Storage used against the quota (bytes). */
-export interface StorageUsage {
-  storedBytes: number;
-  quotaBytes: number;
-  largestCaptureBytes: number;
-  captureCount: number;
-}
-
-/** One page of the captures list. */
-export interface CaptureList {
-  items: Capture[];
-  total: number;
-  page: number;
-  pageSize: number;
-  usage: StorageUsage;
-}
+export type { Capture, CaptureList, StorageUsage } from '@/contracts/capture';
 
 /** A SigMF annotation read into numbers (samples, Hz), whatever spelling the object used. */
 export interface Annotation {

@@ -5,7 +5,8 @@
  */
 import { useState } from 'react';
 import { buttonPrimary, buttonSecondary, buttonSmall } from '@/components/ui';
-import type { Chain } from './api';
+import type { Chain } from '@/contracts/chain';
+import { chainExportUrl } from './queries';
 import { RunOnCapturesButton } from '@/components/runs/RunOnCapturesDialog';
 
 export type ViewMode = 'cells' | 'json' | 'split';
@@ -133,7 +134,7 @@ export default function NotebookHeader(props: NotebookHeaderProps) {
               Fork
             </button>
           )}
-          <a className={buttonSecondary + ' py-1.5 text-xs'} href={`/api/chains/${encodeURIComponent(chain.id)}/export${viewing ? `?revision=${viewing}` : ''}`} download>
+          <a className={buttonSecondary + ' py-1.5 text-xs'} href={chainExportUrl(chain.id, viewing ?? undefined)} download>
             Export JSON
           </a>
         </div>

@@ -5,7 +5,7 @@
  */
 import { createColumnHelper, type ColumnDef } from '@tanstack/react-table';
 import { buttonSmall } from '../ui';
-import type { Chain } from './api';
+import type { Chain } from '@/contracts/chain';
 
 const column = createColumnHelper<Chain>();
 

@@ -2,13 +2,17 @@
  * The chains API as TanStack Query hooks, over the one fetch function (apiJson): reads are
  * queries cached under `['chains', ...]`, writes are mutations that refresh what they changed.
  */
-import { useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
+import { keepPreviousData, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import type { ChainChange } from '@/lib/chain-diff';
 import { apiJson, queryString } from '@/components/query/fetch';
-import type { Chain, ChainList, ChainWithRevision, Revision, RevisionSummary, RevisionWithDocument } from './api';
+import { storedChainDocumentOf, type Chain, type ChainChanges, type ChainList, type ChainWithRevision, type RevisionSummary, type RevisionWithDocument, type StoredChainDocument } from '@/contracts/chain';
+import type { Visibility } from '@/contracts/capture';
 import type { ChainListParams } from './list-state';
 
-export type { Chain, ChainList, ChainWithRevision, Revision };
+export type { Chain, ChainList, ChainWithRevision };
+
+/** A revision with its document checked against the chain contract once, as it arrived. */
+export type StoredRevision = Omit<RevisionWithDocument, 'document'> & { document: StoredChainDocument };
 
 const base = (id: string) => `/api/chains/${encodeURIComponent(id)}`;
 
@@ -31,14 +35,39 @@ export function fetchChain(client: QueryClient, id: string): Promise<ChainWithRe
   return client.fetchQuery({ queryKey: chainKeys.chain(id), queryFn: () => apiJson<ChainWithRevision>('GET', base(id)), staleTime: 0 });
 }
 
-/** One revision with its document; revisions never change, so a fetched one is kept. */
-export function fetchRevision(client: QueryClient, id: string, revision: number): Promise<RevisionWithDocument> {
-  return client.fetchQuery({ queryKey: chainKeys.revision(id, revision), queryFn: () => apiJson<RevisionWithDocument>('GET', `${base(id)}/revisions/${revision}`), staleTime: Infinity });
+/** A revision as the API answers it, its document read through the chain contract (a damaged one fails here). */
+async function getRevision(id: string, revision: number): Promise<StoredRevision> {
+  const answer = await apiJson<RevisionWithDocument>('GET', `${base(id)}/revisions/${revision}`);
+  return { ...answer, document: storedChainDocumentOf(answer.document) };
 }
 
-/** The revisions of a chain, newest first, without documents. */
-export function useRevisions(id: string) {
-  return useQuery({ queryKey: chainKeys.revisions(id), queryFn: () => apiJson<{ items: RevisionSummary[] }>('GET', `${base(id)}/revisions`).then((r) => r.items) });
+/** One revision with its document; revisions never change, so a fetched one is kept. */
+export function fetchRevision(client: QueryClient, id: string, revision: number): Promise<StoredRevision> {
+  return client.fetchQuery({ queryKey: chainKeys.revision(id, revision), queryFn: () => getRevision(id, revision), staleTime: Infinity });
+}
+
+/** The same revision as a query; nothing is asked while no chain or revision is chosen. */
+export function useRevision(id: string | null, revision: number | null) {
+  return useQuery({
+    queryKey: chainKeys.revision(id ?? '', revision ?? 0),
+    queryFn: () => getRevision(id!, revision!),
+    enabled: id !== null && revision !== null,
+    staleTime: Infinity,
+  });
+}
+
+/** One page of the chains list as a query (pickers); the previous page stays while the next loads. */
+export function useChainList(params: ChainListParams) {
+  return useQuery({ queryKey: [...chainKeys.all, 'list', params], queryFn: () => fetchChainList(params), placeholderData: keepPreviousData });
+}
+
+/** The revisions of a chain, newest first, without documents; nothing is asked while `id` is null. */
+export function useRevisions(id: string | null) {
+  return useQuery({
+    queryKey: chainKeys.revisions(id ?? ''),
+    queryFn: () => apiJson<{ items: RevisionSummary[] }>('GET', `${base(id!)}/revisions`).then((r) => r.items),
+    enabled: id !== null,
+  });
 }
 
 /** Parameter-level changes from revision `from` to `to` (revisions never change: kept once fetched). */
@@ -59,7 +88,7 @@ function useRefreshChains() {
 export function useCreateChain() {
   const refresh = useRefreshChains();
   return useMutation({
-    mutationFn: (body: { name: string; visibility: 'private' | 'team'; document: unknown; description?: string }) => apiJson<{ id: string; revision: number }>('POST', '/api/chains', body),
+    mutationFn: (body: { name: string; visibility: Visibility; document: unknown; description?: string }) => apiJson<{ id: string; revision: number }>('POST', '/api/chains', body),
     onSuccess: refresh,
   });
 }
@@ -75,7 +104,7 @@ export function useForkChain() {
 export function useUpdateChain() {
   const refresh = useRefreshChains();
   return useMutation({
-    mutationFn: ({ id, ...body }: { id: string; name?: string; description?: string; visibility?: 'private' | 'team' }) => apiJson<Chain>('PATCH', base(id), body),
+    mutationFn: ({ id, ...body }: { id: string } & ChainChanges) => apiJson<Chain>('PATCH', base(id), body),
     onSuccess: refresh,
   });
 }

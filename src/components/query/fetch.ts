@@ -82,3 +82,12 @@ export function queryString(params: object): string {
   }
   return search.toString();
 }
+
+/** A mutation's outcome as an ApiResult, for forms that place a failure beside its field rather than catch it (status 200 stands for any success). */
+export async function settled<T>(promise: Promise<T>): Promise<ApiResult<T>> {
+  try {
+    return { ok: true, status: 200, data: await promise };
+  } catch (error) {
+    return failureOf(error);
+  }
+}

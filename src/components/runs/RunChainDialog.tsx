@@ -1,8 +1,10 @@
 import { useEffect, useMemo, useState } from 'react';
+import type { Chain, RevisionSummary } from '@/contracts/chain';
 import { input, label } from '../ui';
 import type { Capture } from '../captures/types';
-import { chainsApi, type Chain, type Revision } from '../chains/api';
+import { useChainList, useRevisions } from '../chains/queries';
 import { DialogShell } from '../DialogShell';
+import { withQueryClient } from '../table/withQueryClient';
 import { DialogButton, SearchBox, useDebounced, useRevisionDocument, useRunSubmission } from './run-dialog-parts';
 import { runBlocker } from './run-check';
 import { utcMinute } from './format';
@@ -14,48 +16,30 @@ export interface RunChainProps {
 }
 
 /** "Run a chain…" on a capture page: opens a dialog to pick a chain and revision and run it on this capture. */
-export function RunChainButton(props: RunChainProps) {
+function RunChainOpener(props: RunChainProps) {
   return <DialogButton text="Run a chain…" testId="run-chain" className={props.className} dialog={(onClose) => <RunChainDialog {...props} onClose={onClose} />} />;
 }
+
+/** The opener as an island of its own (the capture page has no query cache around it). */
+export const RunChainButton = withQueryClient(RunChainOpener, 10_000);
 
 function RunChainDialog({ capture, onClose }: RunChainProps & { onClose: () => void }) {
   const [search, setSearch] = useState('');
   const q = useDebounced(search.trim(), 250);
-  const [chains, setChains] = useState<Chain[] | null>(null);
-  const [listError, setListError] = useState<string | null>(null);
+  const list = useChainList({ q: q || undefined, sort: 'updatedAt', order: 'desc', page: 1, pageSize: 100 });
+  const chains = useMemo(() => list.data?.items.filter((c) => c.permissions.run) ?? null, [list.data]);
+  const listError = list.error ? list.error.message : null;
   const [chain, setChain] = useState<Chain | null>(null);
-  const [revisions, setRevisions] = useState<Revision[]>([]);
+  const revisions = useRevisions(chain?.id ?? null).data ?? [];
   const [revision, setRevision] = useState<number | null>(null);
-  const document = useRevisionDocument(chain?.id ?? null, revision);
+  const { document, failure } = useRevisionDocument(chain?.id ?? null, revision);
   const { busy, error, submit } = useRunSubmission();
 
   useEffect(() => {
-    let live = true;
-    void chainsApi.list({ q: q || undefined, pageSize: 100 }).then((result) => {
-      if (!live) return;
-      if (!result.ok) return setListError(result.error.message);
-      setListError(null);
-      setChains(result.data.items.filter((c) => c.permissions.run));
-    });
-    return () => {
-      live = false;
-    };
-  }, [q]);
-
-  useEffect(() => {
-    if (!chain) return;
-    let live = true;
-    setRevisions([]);
-    setRevision(chain.latestRevision);
-    void chainsApi.revisions(chain.id).then((result) => {
-      if (live && result.ok) setRevisions(result.data.items);
-    });
-    return () => {
-      live = false;
-    };
+    if (chain) setRevision(chain.latestRevision);
   }, [chain]);
 
-  const blocker = useMemo(() => (document === null ? null : runBlocker(document, capture)), [document, capture]);
+  const blocker = useMemo(() => failure ?? (document === null ? null : runBlocker(document, capture)), [failure, document, capture]);
 
   return (
     <DialogShell
@@ -101,7 +85,7 @@ function RunChainDialog({ capture, onClose }: RunChainProps & { onClose: () => v
             Revision of {chain.name}
           </label>
           <select id="run-chain-revision" className={input} value={revision ?? chain.latestRevision} onChange={(e) => setRevision(Number(e.target.value))}>
-            {(revisions.length > 0 ? revisions : [{ revision: chain.latestRevision, message: '', createdAt: '' } as Revision]).map((r) => (
+            {(revisions.length > 0 ? revisions : [{ revision: chain.latestRevision, message: '', createdAt: '' } as RevisionSummary]).map((r) => (
               <option key={r.revision} value={r.revision}>
                 r{r.revision}
                 {r.revision === chain.latestRevision ? ' (latest)' : ''}

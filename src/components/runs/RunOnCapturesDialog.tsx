@@ -1,6 +1,6 @@
-import { useEffect, useMemo, useState } from 'react';
+import { useMemo, useState } from 'react';
 import { Quantity } from '../Quantity';
-import { fetchCaptureList } from '../captures/api';
+import { useCaptureList } from '../captures/queries';
 import { LAYOUT_LABELS, type Capture } from '../captures/types';
 import { DialogShell } from '../DialogShell';
 import { DialogButton, SearchBox, useDebounced, useRevisionDocument, useRunSubmission } from './run-dialog-parts';
@@ -29,38 +29,24 @@ const LIST_SIZE = 100;
 function RunOnCapturesDialog({ chainId, chainName, revision, unsavedEdits, onClose }: RunOnCapturesProps & { onClose: () => void }) {
   const [search, setSearch] = useState('');
   const q = useDebounced(search.trim(), 250);
-  const [captures, setCaptures] = useState<Capture[] | null>(null);
-  const [total, setTotal] = useState(0);
-  const [listError, setListError] = useState<string | null>(null);
-  const document = useRevisionDocument(chainId, revision);
+  const list = useCaptureList({ q: q || undefined, sort: 'createdAt', order: 'desc', page: 1, pageSize: LIST_SIZE });
+  const captures = list.data?.items ?? null;
+  const total = list.data?.total ?? 0;
+  const listError = list.error ? list.error.message : null;
+  const { document, failure } = useRevisionDocument(chainId, revision);
   const [selected, setSelected] = useState<Map<string, Capture>>(new Map());
   const { busy, error, submit } = useRunSubmission();
-
-  useEffect(() => {
-    let live = true;
-    fetchCaptureList({ q: q || undefined, sort: 'createdAt', order: 'desc', page: 1, pageSize: LIST_SIZE })
-      .then((list) => {
-        if (!live) return;
-        setCaptures(list.items);
-        setTotal(list.total);
-        setListError(null);
-      })
-      .catch((e: Error) => live && setListError(e.message));
-    return () => {
-      live = false;
-    };
-  }, [q]);
 
   // Why each listed capture cannot take this chain (the check the server makes), once the revision is loaded.
   const blockers = useMemo(() => {
     const out = new Map<string, string>();
-    if (document === null || !captures) return out;
+    if (!captures || (document === null && failure === null)) return out;
     for (const capture of captures) {
-      const blocker = runBlocker(document, capture);
+      const blocker = failure ?? runBlocker(document!, capture);
       if (blocker) out.set(capture.id, blocker);
     }
     return out;
-  }, [document, captures]);
+  }, [document, failure, captures]);
 
   function toggle(capture: Capture) {
     setSelected((current) => {

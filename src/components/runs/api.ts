@@ -1,5 +1,8 @@
-/** Calls of the runs API from the browser; failures come back as the API's error. */
-import { requestJson, type ApiResult } from '../forms/api';
+/**
+ * Calls of the runs API from the browser, over the one fetch module: reads throw an
+ * ApiRequestError (TanStack Query's query functions), actions answer an ApiResult for the screen.
+ */
+import { apiJson, requestJson, type ApiResult } from '@/components/query/fetch';
 import type { PlotDataByKind, PlotKind, Run, RunComparison, RunList, SpectrumPlotData, SubmittedRuns } from './types';
 
 const base = (id: string) => `/api/runs/${encodeURIComponent(id)}`;
@@ -14,40 +17,34 @@ export interface RunListParams {
   pageSize: number;
 }
 
-/** Throws an Error carrying the API's message, which TanStack Query shows. */
-function unwrap<T>(result: ApiResult<T>): T {
-  if (!result.ok) throw Object.assign(new Error(result.error.message), { status: result.status, code: result.error.code });
-  return result.data;
-}
-
-export async function fetchRunList(params: RunListParams): Promise<RunList> {
+export function fetchRunList(params: RunListParams): Promise<RunList> {
   const search = new URLSearchParams({ page: String(params.page), page_size: String(params.pageSize) });
   if (params.all) search.set('all', '1');
   if (params.mine) search.set('mine', '1');
   if (params.status) search.set('status', params.status);
-  return unwrap(await requestJson<RunList>('GET', `/api/runs?${search}`));
+  return apiJson<RunList>('GET', `/api/runs?${search}`);
 }
 
-export async function fetchRun(id: string): Promise<Run> {
-  return unwrap(await requestJson<Run>('GET', base(id)));
+export function fetchRun(id: string): Promise<Run> {
+  return apiJson<Run>('GET', base(id));
 }
 
 /** Reduced plot data of one probe: never more than `width` points per row (px). */
-export async function fetchPlot<K extends PlotKind>(id: string, probe: string, kind: K, width: number): Promise<PlotDataByKind[K]> {
+export function fetchPlot<K extends PlotKind>(id: string, probe: string, kind: K, width: number): Promise<PlotDataByKind[K]> {
   const search = new URLSearchParams({ probe, kind, width: String(width) });
-  return unwrap(await requestJson<PlotDataByKind[K]>('GET', `${base(id)}/plot?${search}`));
+  return apiJson<PlotDataByKind[K]>('GET', `${base(id)}/plot?${search}`);
 }
 
 /** Every bin of one probe's spectrum (what markers snap to); fetched only once a marker is placed. */
-export async function fetchSpectrumBins(id: string, probe: string): Promise<SpectrumPlotData> {
+export function fetchSpectrumBins(id: string, probe: string): Promise<SpectrumPlotData> {
   const search = new URLSearchParams({ probe, kind: 'spectrum', full: '1' });
-  return unwrap(await requestJson<SpectrumPlotData>('GET', `${base(id)}/plot?${search}`));
+  return apiJson<SpectrumPlotData>('GET', `${base(id)}/plot?${search}`);
 }
 
 /** Spectra (at most `width` points each, px) and readouts of two or more runs. */
-export async function fetchComparison(ids: string[], width: number): Promise<RunComparison> {
+export function fetchComparison(ids: string[], width: number): Promise<RunComparison> {
   const search = new URLSearchParams({ ids: ids.join(','), width: String(width) });
-  return unwrap(await requestJson<RunComparison>('GET', `/api/runs/compare?${search}`));
+  return apiJson<RunComparison>('GET', `/api/runs/compare?${search}`);
 }
 
 export function cancelRun(id: string): Promise<ApiResult<Run>> {
@@ -59,12 +56,12 @@ export function retryRun(id: string): Promise<ApiResult<SubmittedRuns>> {
 }
 
 /** Asks for one run per capture of a chain revision (latest when `revision` is absent). */
-export function submitRuns(chainId: string, revision: number | undefined, captureIds: string[]): Promise<ApiResult<SubmittedRuns>> {
+export function submitRuns(chainId: string, revision: number | undefined, captureIds: string[]): Promise<SubmittedRuns> {
   const body: Record<string, unknown> = { chain_id: chainId };
   if (revision !== undefined) body.revision = revision;
   if (captureIds.length === 1) body.capture_id = captureIds[0];
   else body.capture_ids = captureIds;
-  return requestJson<SubmittedRuns>('POST', '/api/runs', body);
+  return apiJson<SubmittedRuns>('POST', '/api/runs', body);
 }
 
 /** Formats GET /api/runs/:id/export answers. */

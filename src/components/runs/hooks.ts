@@ -1,7 +1,7 @@
-/** Hooks of the run screens: live status over server-sent events, plot widths, reduced plot data. */
+/** Hooks of the run screens: live status over server-sent events, plot widths, reduced plot data, submission. */
 import { useEffect, useRef, useState, type RefObject } from 'react';
-import { keepPreviousData, useQuery, useQueryClient } from '@tanstack/react-query';
-import { eventsUrl, fetchPlot } from './api';
+import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { eventsUrl, fetchPlot, submitRuns } from './api';
 import { isActive, type PlotKind, type Run, type RunStatusEvent } from './types';
 
 /**
@@ -86,4 +86,13 @@ export function useClock(running: boolean): number {
     return () => clearInterval(timer);
   }, [running]);
   return now;
+}
+
+/** Queues one run per capture of a chain revision; the runs lists are refreshed once it went through. */
+export function useSubmitRuns() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ chainId, revision, captureIds }: { chainId: string; revision: number | undefined; captureIds: string[] }) => submitRuns(chainId, revision, captureIds),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: ['runs'] }),
+  });
 }

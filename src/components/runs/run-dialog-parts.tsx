@@ -1,8 +1,10 @@
 /** What the two run dialogs share: the opening button, the search box, the revision document and the submission. */
 import { useEffect, useState, type ReactNode } from 'react';
 import { buttonSecondary, input } from '../ui';
-import { chainsApi } from '../chains/api';
-import { submitRuns } from './api';
+import type { StoredChainDocument } from '@/contracts/chain';
+import { failureOf } from '../query/fetch';
+import { useRevision } from '../chains/queries';
+import { useSubmitRuns } from './hooks';
 
 /** A button that mounts `dialog` while open; the dialog gets the function that closes it. */
 export function DialogButton({ text, testId, className, dialog }: { text: string; testId: string; className?: string; dialog: (onClose: () => void) => ReactNode }) {
@@ -27,21 +29,13 @@ export function useDebounced<T>(value: T, ms: number): T {
   return settled;
 }
 
-/** The stored document of a chain revision, or null until it has loaded (or while nothing is chosen). */
-export function useRevisionDocument(chainId: string | null, revision: number | null): unknown {
-  const [document, setDocument] = useState<unknown>(null);
-  useEffect(() => {
-    setDocument(null);
-    if (chainId === null || revision === null) return;
-    let live = true;
-    void chainsApi.revision(chainId, revision).then((result) => {
-      if (live && result.ok) setDocument(result.data.document ?? null);
-    });
-    return () => {
-      live = false;
-    };
-  }, [chainId, revision]);
-  return document;
+/**
+ * The stored document of a chain revision (null until it has loaded, or while nothing is chosen),
+ * and why it could not be read: a damaged document stops the run as the server would.
+ */
+export function useRevisionDocument(chainId: string | null, revision: number | null): { document: StoredChainDocument | null; failure: string | null } {
+  const query = useRevision(chainId, revision);
+  return { document: query.data?.document ?? null, failure: query.error ? query.error.message : null };
 }
 
 /**
@@ -49,21 +43,21 @@ export function useRevisionDocument(chainId: string | null, revision: number | n
  * several); a refusal stays in the dialog as `error`.
  */
 export function useRunSubmission() {
-  const [busy, setBusy] = useState(false);
-  const [error, setError] = useState<string | null>(null);
+  const mutation = useSubmitRuns();
+  // Stays busy after success: the page is being left for the new run's.
+  const [leaving, setLeaving] = useState(false);
   async function submit(chainId: string, revision: number, captureIds: string[]): Promise<void> {
     if (captureIds.length === 0) return;
-    setBusy(true);
-    setError(null);
-    const result = await submitRuns(chainId, revision, captureIds);
-    if (!result.ok) {
-      setBusy(false);
-      return setError(result.error.message);
+    try {
+      const { runs } = await mutation.mutateAsync({ chainId, revision, captureIds });
+      setLeaving(true);
+      window.location.assign(runs.length === 1 ? `/runs/${runs[0].id}` : '/runs');
+    } catch {
+      // The refusal is the mutation's error, shown in the dialog.
     }
-    const runs = result.data.runs;
-    window.location.assign(runs.length === 1 ? `/runs/${runs[0].id}` : '/runs');
   }
-  return { busy, error, submit };
+  const error = mutation.error ? failureOf(mutation.error).error.message : null;
+  return { busy: mutation.isPending || leaving, error, submit };
 }
 
 interface SearchBoxProps {

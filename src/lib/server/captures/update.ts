@@ -6,20 +6,11 @@ import type { Knex } from 'knex';
 import { FormatError, buildSigmfMeta, parseSigmfMeta, SIGMF_VERSION } from '@/dsp/formats';
 import type { ObjectStore } from '../storage';
 import { badRequest, unprocessable } from '../api/errors';
-import { type Visibility } from './metadata';
+import type { CaptureChanges } from '@/contracts/capture';
 import { findCapture, type CaptureRow, type CaptureWithOwner } from './rows';
 
-/** Fields PATCH may change (already checked one by one). */
-export interface CaptureChanges {
-  name?: string;
-  notes?: string;
-  tags?: string[];
-  visibility?: Visibility;
-  /** Hz, or null to clear. */
-  centerFrequency?: number | null;
-  /** SigMF annotation objects. */
-  annotations?: unknown[];
-}
+/** Fields PATCH may change (the contract's), already checked one by one. */
+export type { CaptureChanges };
 
 /**
  * Checks annotations as SigMF defines them and against the capture's length; answers them in

@@ -4,13 +4,10 @@
  */
 import type { Knex } from 'knex';
 import { notFound } from '../api/errors';
-import { findChain, type ChainWithOwner, type Visibility } from './rows';
+import type { ChainChanges } from '@/contracts/chain';
+import { findChain, type ChainWithOwner } from './rows';
 
-export interface ChainChanges {
-  name?: string;
-  description?: string;
-  visibility?: Visibility;
-}
+export type { ChainChanges };
 
 /** Applies the changes and answers the updated chain; 404 when it is gone. */
 export async function updateChain(db: Knex, id: string, changes: ChainChanges): Promise<ChainWithOwner> {

@@ -5,6 +5,7 @@
 import type { Knex } from 'knex';
 import { ApiError } from '../api/errors';
 import { defaultQuota, type Quota } from './config';
+import type { StorageUsage } from '@/contracts/capture';
 
 interface UserQuotaRow {
   user_id: string;
@@ -65,13 +66,8 @@ export async function storageUsed(db: Knex, userId: string): Promise<{ storedByt
   return { storedBytes: Number(row?.bytes ?? 0), captureCount: Number(row?.count ?? 0) };
 }
 
-/** What the captures list shows beside the table. */
-export interface StorageUsage {
-  storedBytes: number;
-  quotaBytes: number;
-  largestCaptureBytes: number;
-  captureCount: number;
-}
+/** What the captures list shows beside the table (the capture contract's). */
+export type { StorageUsage };
 
 /** Storage used against the quota. */
 export async function storageUsage(db: Knex, userId: string): Promise<StorageUsage> {

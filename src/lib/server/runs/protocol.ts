@@ -5,6 +5,7 @@
  */
 import type { ChainDocument } from '@/dsp/chain';
 import type { RunJobCapture } from '@/contracts/capture';
+import type { PresentedRunError } from '@/contracts/run';
 import type { ProbeDataEntry } from './probe-data';
 
 /** What a worker is asked to do (sent as workerData). */
@@ -19,15 +20,6 @@ export interface RunJob {
   progressIntervalMs: number;
   /** Nice value (0..19) the worker thread runs at, so requests keep priority over runs. */
   niceness: number;
-}
-
-/** Where and why a run failed: `stageId`/`kind` name the stage (null, 'input' for the capture itself). */
-export interface RunFailure {
-  message: string;
-  stageId: string | null;
-  kind: string;
-  /** Input sample of that stage (or of the capture) where it failed, or null when unknown. */
-  sampleIndex: number | null;
 }
 
 /** The output capture a successful worker stored. */
@@ -52,7 +44,7 @@ export type WorkerMessage =
       output: StoredOutput;
       seconds: number;
     }
-  | { type: 'failed'; error: RunFailure; seconds: number }
+  | { type: 'failed'; /** Where and why, as the run's page presents it. */ error: PresentedRunError; seconds: number }
   | { type: 'cancelled'; seconds: number };
 
 /** The last message of a worker: how the run ended. */

@@ -8,7 +8,8 @@ import { randomUUID } from 'node:crypto';
 import type { Knex } from 'knex';
 import type { ObjectStore } from '../storage';
 import type { ProbeDataEntry } from './probe-data';
-import type { RunFailure, StoredOutput } from './protocol';
+import type { PresentedRunError } from '@/contracts/run';
+import type { StoredOutput } from './protocol';
 import type { RunProbeDataRow, RunResultRow, RunRow } from './rows';
 import { publishRunNotice } from './events';
 
@@ -144,7 +145,7 @@ export async function completeFromCache(db: Knex, run: RunRow, resultId: string)
 }
 
 /** Ends a run as failed with where and why; its compute seconds still count. */
-export async function recordFailure(db: Knex, run: RunRow, failure: RunFailure, seconds: number): Promise<void> {
+export async function recordFailure(db: Knex, run: RunRow, failure: PresentedRunError, seconds: number): Promise<void> {
   const finished = new Date();
   await db.transaction(async (trx) => {
     const current = (await trx('runs').where({ id: run.id }).first()) as RunRow | undefined;
