@@ -45,7 +45,7 @@ function UserAdmin({ initialAccounts, currentUserId }: UserAdminProps) {
   }
 
   return (
-    <div className="grid items-start gap-8 2xl:grid-cols-[minmax(0,1fr)_24rem]">
+    <div className="grid grid-cols-1 items-start gap-8 2xl:grid-cols-[minmax(0,1fr)_24rem]">
       <section aria-labelledby="accounts-title" className="min-w-0 space-y-3">
         <div className="flex items-baseline justify-between">
           <h2 id="accounts-title" className="text-lg font-semibold">

@@ -17,7 +17,7 @@ interface UsersTableProps {
 /** All accounts with their role and status; role and status can be changed in place. */
 export function UsersTable({ accounts, currentUserId, savingId, ready, onRole, onDisabled }: UsersTableProps) {
   return (
-    <div className="overflow-x-auto rounded-lg border border-line bg-panel">
+    <div className="relative overflow-x-auto rounded-lg border border-line bg-panel">
       <table className="w-full whitespace-nowrap text-sm" data-testid="users-table">
         <caption className="sr-only">Accounts</caption>
         <thead className="border-b border-line text-left text-xs uppercase tracking-wide text-muted">
