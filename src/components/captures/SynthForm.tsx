@@ -6,7 +6,6 @@ import { demoSynthSpecs } from '@/dsp/synth/demo';
 import { synthSampleCount } from '@/dsp/synth/spec';
 import { synthSpecWarnings, type SynthSpec } from '@/dsp/synth/validate';
 import { formatBytes, formatQuantity } from '@/lib/units';
-import { apiErrorOf } from '@/contracts/errors';
 import { buttonPrimary, input, label as labelClass } from '../ui';
 import { FieldView } from './SynthFieldViews';
 import { formNameOf, formValuesOf, synthFormModel, synthFormSchema, type SynthFormValues } from './synth-form-schema';
