@@ -14,9 +14,8 @@ const entries = readdirSync('workers')
   .filter((name) => name.endsWith('-worker.ts'))
   .map((name) => join('workers', name));
 
-await build({
-  entryPoints: entries,
-  outdir: outDir,
+/** How every server-side bundle is made: ESM for Node 20, npm packages left to node_modules. */
+const serverBundle = {
   outExtension: { '.js': '.mjs' },
   bundle: true,
   platform: 'node',
@@ -26,19 +25,9 @@ await build({
   tsconfig: 'tsconfig.json',
   sourcemap: false,
   logLevel: 'warning',
-});
+};
+
+await build({ ...serverBundle, entryPoints: entries, outdir: outDir });
 // The configuration schema, which scripts/serve.mjs checks before it loads the app.
-await build({
-  entryPoints: { index: 'src/lib/config/index.ts' },
-  outdir: resolve(outDir, '..', 'config'),
-  outExtension: { '.js': '.mjs' },
-  bundle: true,
-  platform: 'node',
-  target: 'node20',
-  format: 'esm',
-  packages: 'external',
-  tsconfig: 'tsconfig.json',
-  sourcemap: false,
-  logLevel: 'warning',
-});
+await build({ ...serverBundle, entryPoints: { index: 'src/lib/config/index.ts' }, outdir: resolve(outDir, '..', 'config') });
 console.log(`Built ${entries.length} worker entr${entries.length === 1 ? 'y' : 'ies'} into ${outDir}`);

@@ -1,11 +1,11 @@
 import { useEffect, useMemo, useState } from 'react';
 import { useQueryClient } from '@tanstack/react-query';
-import type { SortingState } from '@tanstack/react-table';
 import { buttonSmall } from '../ui';
 import { ServerTableView } from '../table/ServerTableView';
 import { TableNotice } from '../table/TableNotice';
 import { useServerTable } from '../table/useServerTable';
 import { useUrlState } from '../table/useUrlState';
+import { urlSorting } from '../table/url-sorting';
 import { withQueryClient } from '../table/withQueryClient';
 import { CAPTURES_CHANGED } from './api';
 import { fetchCaptureList, useBulkDeleteCaptures, useDeleteCapture } from './queries';
@@ -53,7 +53,6 @@ function CapturesTable({ initialState, initialList }: CapturesTableProps) {
     () => captureColumns({ onDelete: (capture) => setToDelete([capture]), onTag: (tag) => update((current) => ({ ...current, filters: { ...current.filters, tag }, page: 1 }), 'push') }),
     [update],
   );
-  const sorting: SortingState = [{ id: state.sort, desc: state.desc }];
 
   const { query, params, list, selected, clearSelection, view } = useServerTable({
     queryKey: 'captures',
@@ -65,13 +64,7 @@ function CapturesTable({ initialState, initialList }: CapturesTableProps) {
     rowsOf: (page: CaptureList) => page.items,
     columns,
     getRowId: (capture) => capture.id,
-    sorting: {
-      state: sorting,
-      onChange: (next) => {
-        const first = next[0];
-        if (first) update((current) => ({ ...current, sort: first.id as CaptureListState['sort'], desc: first.desc, page: 1 }), 'push');
-      },
-    },
+    sorting: urlSorting(urlState),
     canSelect: (capture) => capture.permissions.delete,
   });
 

@@ -5,12 +5,12 @@
  */
 import { useMemo, useRef, useState } from 'react';
 import { useMutation } from '@tanstack/react-query';
-import type { SortingState } from '@tanstack/react-table';
 import { buttonPrimary, buttonSecondary } from '@/components/ui';
 import { ServerTableView } from '../table/ServerTableView';
 import { TableNotice } from '../table/TableNotice';
 import { useServerTable } from '../table/useServerTable';
 import { useUrlState } from '../table/useUrlState';
+import { urlSorting } from '../table/url-sorting';
 import { withQueryClient } from '../table/withQueryClient';
 import { fetchChainList, useCreateChain, useForkChain, type Chain, type ChainList as ChainPage } from './queries';
 import { chainColumns } from './chain-columns';
@@ -56,7 +56,6 @@ function ChainList({ mayCreate, initialState, initialList }: ChainListProps) {
     // eslint-disable-next-line react-hooks/exhaustive-deps
     [],
   );
-  const sorting: SortingState = [{ id: state.sort, desc: state.desc }];
   const { query, params, view } = useServerTable({
     queryKey: 'chains',
     urlState,
@@ -67,13 +66,7 @@ function ChainList({ mayCreate, initialState, initialList }: ChainListProps) {
     rowsOf: (page: ChainPage) => page.items,
     columns,
     getRowId: (chain) => chain.id,
-    sorting: {
-      state: sorting,
-      onChange: (next) => {
-        const first = next[0];
-        if (first) update((current) => ({ ...current, sort: first.id as ChainListState['sort'], desc: first.desc, page: 1 }), 'push');
-      },
-    },
+    sorting: urlSorting(urlState),
     canSelect: () => false,
   });
 
