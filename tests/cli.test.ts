@@ -181,6 +181,29 @@ describe('quadrille inspect and --help', () => {
     expect(text.stdout).toMatch(/duration\s+0\.0500000 s/);
   });
 
+  it('counts clipped samples per channel with the crest factor and warns', async () => {
+    // Hand-made: 8 I/Q samples tiled 64 times. |I| >= 1 at 1.25, -1, -2 (3 per tile); |Q| >= 1 at
+    // 1, -1.5 (2 per tile); 0.99 stays below full scale. Squared magnitudes per tile:
+    // 1.5625 + 1.25 + 1 + 0.0625 + 0.9801 + 4 + 2.25 + 0 = 11.1051, peak^2 = 4.
+    const pattern = [[1.25, 0], [0.5, 1], [-1, 0], [0.25, 0], [0.99, 0], [-2, 0], [0, -1.5], [0, 0]];
+    const iq = new Float32Array(2 * 8 * 64);
+    for (let t = 0; t < 64; t++) pattern.forEach(([i, q], k) => { iq[2 * (t * 8 + k)] = i; iq[2 * (t * 8 + k) + 1] = q; });
+    writeSigmf(join(dir, 'clipped'), iq, FS);
+    const r = await quadrille('inspect', join(dir, 'clipped.sigmf-meta'), '--json');
+    expect(r.code).toBe(0);
+    const report = JSON.parse(r.stdout);
+    expect(report.clipped).toEqual([192, 128]);
+    expect(report.crestFactorDb[0]).toBeCloseTo(10 * Math.log10(4 / (11.1051 / 8)), 4);
+    const text = (await quadrille('inspect', join(dir, 'clipped.sigmf-meta'))).stdout;
+    expect(text).toMatch(/clipped I\s+192 of 512 samples at or beyond full scale, crest factor 4\.60 dB/);
+    expect(text).toMatch(/clipped Q\s+128 of 512 samples/);
+    expect(text).toMatch(/overload\s+WARNING/);
+    // The clean tone: no clipped sample, no warning; crest factor 0 dB for a constant-magnitude tone.
+    const clean = (await quadrille('inspect', join(dir, 'tone.sigmf-meta'))).stdout;
+    expect(clean).toMatch(/clipped I\s+0 of 50000 samples/);
+    expect(clean).not.toMatch(/overload/);
+  });
+
   it('--help lists the commands', async () => {
     const r = await quadrille('--help');
     expect(r.code).toBe(0);
