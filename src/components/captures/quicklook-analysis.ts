@@ -36,7 +36,7 @@ export interface BalanceEstimate {
   dcIDbfs: number;
   dcQ: number | null;
   dcQDbfs: number | null;
-  /** 20 log10 of the I/Q amplitude ratio (dB); null for a real capture. */
+  /** 20 log10 of I's amplitude over Q's (dB, Q the reference: + when I is stronger); null for a real capture. */
   gainImbalanceDb: number | null;
   /** Phase error (degrees); null for a real capture. */
   phaseImbalanceDeg: number | null;
