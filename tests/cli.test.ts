@@ -163,6 +163,45 @@ describe('bad input: one clear line, non-zero exit, nothing written', () => {
   });
 });
 
+describe('spectral inversion in the output metadata', () => {
+  it('I + jQ of a tone above the LO comes out mirrored and says so; I - jQ does not', async () => {
+    // Real capture whose 0 Hz stands for 10 MHz RF; a tone at 150 kHz is RF 10.15 MHz. An LO at
+    // 100 kHz moves RF 10.1 MHz to 0 Hz; I - jQ = x e^{-j w t} puts the tone at +50 kHz, I + jQ
+    // at -50 kHz (common practice: the sign of Q sets the orientation).
+    const n = 20_000;
+    const real = new Float32Array(n);
+    for (let k = 0; k < n; k++) real[k] = 0.5 * Math.cos(2 * Math.PI * ((k * 150_000 / FS) % 1));
+    writeSigmf(join(dir, 'real-tone'), real, FS, {}, 'rf32_le', 10e6);
+    const bin = FS / 1024;
+    for (const [convention, inverted, peak] of [['i-minus-jq', false, 50_000], ['i-plus-jq', true, -50_000]] as const) {
+      const out = join(dir, `qmix-${convention}`);
+      // The follow-on mix moves the tone to 0 Hz: its RF (10.15 MHz) is then the output's core:frequency.
+      const chain = writeChain(dir, `qmix-${convention}.json`, [
+        { id: 'qm', kind: 'quadrature-mix', params: { loFrequency: 100_000, convention }, probe: true },
+        { id: 'shift', kind: 'mix', params: { frequency: -peak } },
+      ]);
+      const r = await quadrille('run', '--chain', chain, '--input', join(dir, 'real-tone.sigmf-meta'), '--out', out);
+      expect(r.code, r.stderr).toBe(0);
+      const results = JSON.parse(readFileSync(join(out, 'results.json'), 'utf8'));
+      const probe = results.probes.find((p: { stageId: string }) => p.stageId === 'qm');
+      // The sum term (at -/+250 kHz) has the same level, so compare the tone with its mirror at -peak.
+      const levelAt = (f: number) => {
+        const freqs: number[] = probe.spectrum.frequencies;
+        let best = 0;
+        for (let k = 1; k < freqs.length; k++) if (Math.abs(freqs[k] - f) < Math.abs(freqs[best] - f)) best = k;
+        expect(Math.abs(freqs[best] - f)).toBeLessThan(bin);
+        return probe.spectrum.levels[best] as number;
+      };
+      expect(levelAt(peak) - levelAt(-peak)).toBeGreaterThan(60);
+      const raw = JSON.parse(readFileSync(join(out, 'output.sigmf-meta'), 'utf8'));
+      expect(raw.global['quadrille:spectrum_inverted']).toBe(inverted);
+      expect(raw.global['core:extensions']).toEqual([{ name: 'quadrille', version: '1.0.0', optional: true }]);
+      expect(raw.global['core:description']).toMatch(inverted ? /Spectrum inverted/ : /Spectrum upright/);
+      expect(raw.captures[0]['core:frequency']).toBe(10.15e6);
+    }
+  });
+});
+
 describe('quadrille inspect and --help', () => {
   it('prints metadata and a quick readout', async () => {
     const r = await quadrille('inspect', join(dir, 'tone.sigmf-meta'), '--json');
@@ -179,6 +218,29 @@ describe('quadrille inspect and --help', () => {
     const shown = Number(/strongest tone\s+(-?[\d.]+) Hz/.exec(text.stdout)?.[1]);
     expect(Math.abs(shown - TONE)).toBeLessThan(FS / 4096 / 2);
     expect(text.stdout).toMatch(/duration\s+0\.0500000 s/);
+  });
+
+  it('counts clipped samples per channel with the crest factor and warns', async () => {
+    // Hand-made: 8 I/Q samples tiled 64 times. |I| >= 1 at 1.25, -1, -2 (3 per tile); |Q| >= 1 at
+    // 1, -1.5 (2 per tile); 0.99 stays below full scale. Squared magnitudes per tile:
+    // 1.5625 + 1.25 + 1 + 0.0625 + 0.9801 + 4 + 2.25 + 0 = 11.1051, peak^2 = 4.
+    const pattern = [[1.25, 0], [0.5, 1], [-1, 0], [0.25, 0], [0.99, 0], [-2, 0], [0, -1.5], [0, 0]];
+    const iq = new Float32Array(2 * 8 * 64);
+    for (let t = 0; t < 64; t++) pattern.forEach(([i, q], k) => { iq[2 * (t * 8 + k)] = i; iq[2 * (t * 8 + k) + 1] = q; });
+    writeSigmf(join(dir, 'clipped'), iq, FS);
+    const r = await quadrille('inspect', join(dir, 'clipped.sigmf-meta'), '--json');
+    expect(r.code).toBe(0);
+    const report = JSON.parse(r.stdout);
+    expect(report.clipped).toEqual([192, 128]);
+    expect(report.crestFactorDb[0]).toBeCloseTo(10 * Math.log10(4 / (11.1051 / 8)), 4);
+    const text = (await quadrille('inspect', join(dir, 'clipped.sigmf-meta'))).stdout;
+    expect(text).toMatch(/clipped I\s+192 of 512 samples at or beyond full scale, crest factor 4\.60 dB/);
+    expect(text).toMatch(/clipped Q\s+128 of 512 samples/);
+    expect(text).toMatch(/overload\s+WARNING/);
+    // The clean tone: no clipped sample, no warning; crest factor 0 dB for a constant-magnitude tone.
+    const clean = (await quadrille('inspect', join(dir, 'tone.sigmf-meta'))).stdout;
+    expect(clean).toMatch(/clipped I\s+0 of 50000 samples/);
+    expect(clean).not.toMatch(/overload/);
   });
 
   it('--help lists the commands', async () => {

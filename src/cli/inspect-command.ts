@@ -8,6 +8,7 @@
  */
 import { basename } from 'node:path';
 import { WelchAccumulator } from '../dsp/spectral/welch';
+import { ClippingCounter } from '../dsp/measure/clipping';
 import type { Capture } from '../contracts/capture';
 import { openCapture, type CaptureOptions } from './capture-source';
 
@@ -24,6 +25,10 @@ export type InspectReport = Pick<Capture, 'datatype' | 'layout' | 'sampleRate' |
   peakDbfs: number[];
   /** Mean of each component: [I, Q] for complex, [x] for real, [ch0, ch1] for real-pair. */
   dcOffset: number[];
+  /** Samples with |x| >= 1 (at or beyond full scale) per channel, named as dcOffset. */
+  clipped: number[];
+  /** Crest factor 20 log10(peak / RMS) in dB per channel (one figure of |I + jQ| for complex); null without signal. */
+  crestFactorDb: (number | null)[];
   /** Strongest spectral peak: frequency (Hz, relative to 0 Hz of the stream) and level (dBFS). */
   strongestTone: { frequency: number; level: number } | null;
   description?: string;
@@ -47,8 +52,19 @@ export function inspectCapture(path: string, options: CaptureOptions = {}): Insp
   const welch = capture.totalSamples > 0 && layout !== 'real-pair'
     ? new WelchAccumulator({ sampleRate: format.sampleRate, sampleType: layout, fftSize, window: 'hann', overlap: 0.5, scaling: 'spectrum' })
     : null;
+  // A real pair is two real channels, each with its own full scale and crest factor.
+  const clipCounters = layout === 'real-pair' ? [new ClippingCounter(false), new ClippingCounter(false)] : [new ClippingCounter(layout === 'complex')];
   let samples = 0;
   for (const block of capture.blocks()) {
+    if (layout === 'real-pair') {
+      const half = block.length >> 1;
+      const a = new Float32Array(half), b = new Float32Array(half);
+      for (let k = 0; k < half; k++) { a[k] = block[2 * k]; b[k] = block[2 * k + 1]; }
+      clipCounters[0].push(a);
+      clipCounters[1].push(b);
+    } else {
+      clipCounters[0].push(block);
+    }
     if (layout === 'complex') {
       let si = 0, sq = 0, p = 0, peak = peakSquare[0];
       for (let k = 0; k < block.length; k += 2) {
@@ -94,6 +110,8 @@ export function inspectCapture(path: string, options: CaptureOptions = {}): Insp
     rmsDbfs,
     peakDbfs,
     dcOffset: Array.from(sum, (s) => (samples ? s / samples : 0)),
+    clipped: clipCounters.flatMap((c) => c.clipped),
+    crestFactorDb: clipCounters.map((c) => c.crestFactorDb()),
     strongestTone,
     ...(g?.description ? { description: g.description } : {}),
     ...(g?.author ? { author: g.author } : {}),
@@ -119,6 +137,12 @@ export function formatInspectReport(r: InspectReport): string {
     ['RMS level', perChannel(r.rmsDbfs)],
     ['peak level', perChannel(r.peakDbfs)],
     ['DC offset', r.dcOffset.map((v, k) => `${names[k]} ${v.toExponential(3)}`).join(', ')],
+    ...r.clipped.map((count, k): [string, string] => {
+      const crest = r.crestFactorDb[r.layout === 'complex' ? 0 : k];
+      const crestText = crest === null || crest === undefined ? 'crest factor (no signal)' : `crest factor ${crest.toFixed(2)} dB${r.layout === 'complex' ? ' (of |I + jQ|)' : ''}`;
+      return [`clipped ${names[k]}`, `${count} of ${r.samples} samples at or beyond full scale, ${crestText}`];
+    }),
+    ...(r.clipped.some((c) => c > 0) ? [['overload', 'WARNING: clipped samples; the levels above are unreliable'] as [string, string]] : []),
     ['strongest tone', r.strongestTone ? `${r.strongestTone.frequency.toFixed(1)} Hz at ${db(r.strongestTone.level)}` : r.layout === 'real-pair' ? '(not computed for real-pair; combine the channels first)' : '(no samples)'],
   ];
   if (r.description) lines.push(['description', r.description]);

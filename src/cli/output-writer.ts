@@ -72,6 +72,7 @@ export class RunOutput {
     closeSync(this.dataFd!);
     this.dataFd = null;
     const shape = sigmfShapeOfLayout(format.sampleType);
+    const inverted = format.spectrumInverted === true;
     const sigmf: SigmfMeta = {
       global: {
         datatype: RunOutput.datatypeFor(format),
@@ -80,6 +81,13 @@ export class RunOutput {
         numChannels: shape.numChannels,
         sha512: this.hash.digest('hex'),
         ...meta,
+        description: `${meta.description ?? ''}${meta.description ? ' ' : ''}${spectrumSentence(inverted, format.centerFrequency)}`,
+        // SigMF extension namespaces are declared in core:extensions; ours is optional to readers.
+        extra: {
+          ...(meta.extra ?? {}),
+          'core:extensions': [{ name: 'quadrille', version: '1.0.0', optional: true }],
+          [SPECTRUM_INVERTED_KEY]: inverted,
+        },
       },
       captures: [format.centerFrequency !== undefined ? { sampleStart: 0, frequency: format.centerFrequency } : { sampleStart: 0 }],
       annotations: [],
@@ -107,6 +115,17 @@ export class RunOutput {
       try { if (readdirSync(this.dir).length === 0) rmdirSync(this.dir); } catch { /* leave it */ }
     }
   }
+}
+
+/** Extension field of the output's global: true when a component at f stands for RF core:frequency - f. */
+export const SPECTRUM_INVERTED_KEY = 'quadrille:spectrum_inverted';
+
+/** How to read the output's frequency axis, in words for core:description. */
+function spectrumSentence(inverted: boolean, centerFrequency: number | undefined): string {
+  const at = centerFrequency === undefined ? 'the (unstated) RF of 0 Hz' : `RF ${centerFrequency} Hz (core:frequency)`;
+  return inverted
+    ? `Spectrum inverted (${SPECTRUM_INVERTED_KEY} = true): 0 Hz stands for ${at} and a component at +f for that RF minus f.`
+    : `Spectrum upright (${SPECTRUM_INVERTED_KEY} = false): 0 Hz stands for ${at} and a component at +f for that RF plus f.`;
 }
 
 /** JSON has no NaN or Infinity: write them as null (a level of -Infinity dB reads as "no power"). */

@@ -31,6 +31,11 @@ export interface StreamFormat {
   /** RF frequency (Hz) that 0 Hz of this stream stands for; informational, may be absent. */
   centerFrequency?: number;
   /**
+   * True when the spectrum is mirrored: a component at f of this stream stands for RF
+   * centerFrequency - f instead of centerFrequency + f. Absent means upright.
+   */
+  spectrumInverted?: boolean;
+  /**
    * Highest |frequency| (Hz) still present after a preceding band-limiting filter (its stop-band
    * edge). Absent when nothing has band-limited the stream since the last rate or frequency change;
    * decimation uses it to warn about aliasing.

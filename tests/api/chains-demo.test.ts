@@ -40,7 +40,7 @@ describe('demo chains on the rev A beacon capture', () => {
   it('Front-end balance check reads the rev A impairments of the demo scenario', async () => {
     const readouts = await readoutsOf('Front-end balance check');
     // Rev A of the invented scenario: about 0.3 dB gain and 2 degrees phase imbalance, DC offset 0.018 / -0.011 FS.
-    expect(readouts.get('I/Q gain imbalance')).toBeCloseTo(0.3, 1);
+    expect(readouts.get('I/Q gain imbalance (I relative to Q)')).toBeCloseTo(0.3, 1);
     expect(readouts.get('I/Q phase imbalance')).toBeCloseTo(2, 1);
     expect(readouts.get('DC offset I')).toBeCloseTo(0.018, 3);
     expect(readouts.get('DC offset Q')).toBeCloseTo(-0.011, 3);

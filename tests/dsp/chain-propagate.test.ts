@@ -44,6 +44,28 @@ describe('propagateChain formats', () => {
     expect(qm.issues).toEqual([]);
   });
 
+  it('marks a mirrored spectrum and moves the centre frequency the mirrored way after it', () => {
+    // I + jQ = x e^{+j w t}: a tone at LO + f lands at -f (common practice), so 0 Hz still stands
+    // for RF c + LO and a component at +g for RF c + LO - g.
+    const real: StreamFormat = { sampleRate: 1e6, sampleType: 'real', centerFrequency: 10e6 };
+    const mirrored = propagateChain(chain([
+      { id: 'qm', kind: 'quadrature-mix', params: { loFrequency: 100e3, convention: 'i-plus-jq' } },
+      { id: 'shift', kind: 'mix', params: { frequency: 50e3 } },
+    ]), real, registry);
+    expect(mirrored[0].output).toMatchObject({ centerFrequency: 10.1e6, spectrumInverted: true });
+    // The tone at -50 kHz (RF 10.15 MHz) moves to 0 Hz, which therefore stands for 10.15 MHz.
+    expect(mirrored[1].output).toMatchObject({ centerFrequency: 10.15e6, spectrumInverted: true });
+    const [upright] = propagateChain(chain([{ id: 'qm', kind: 'quadrature-mix', params: { loFrequency: 100e3, convention: 'i-minus-jq' } }]), real, registry);
+    expect(upright.output.spectrumInverted).toBeUndefined();
+    // quadrature-combine against the capture read as I + jQ: I - jQ or a swap mirror, both cancel.
+    const pair: StreamFormat = { sampleRate: 1e6, sampleType: 'real-pair' };
+    const combine = (params: object) => propagateChain(chain([{ id: 'qc', kind: 'quadrature-combine', params }]), pair, registry)[0].output.spectrumInverted;
+    expect(combine({ convention: 'i-plus-jq' })).toBeUndefined();
+    expect(combine({ convention: 'i-minus-jq' })).toBe(true);
+    expect(combine({ convention: 'i-plus-jq', swap: true })).toBe(true);
+    expect(combine({ convention: 'i-minus-jq', swap: true })).toBeUndefined();
+  });
+
   it('passes the format unchanged through a bypassed stage', () => {
     const doc = chain([{ id: 'dec', kind: 'decimate', params: { factor: 4 }, bypass: true }]);
     const [dec] = propagateChain(doc, iq10M, registry);

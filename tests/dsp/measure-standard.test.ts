@@ -161,7 +161,7 @@ describe('dead and degenerate input', () => {
     ['empty', new Float32Array(0), /no samples/],
   ])('%s capture: no perfect receiver, every readout says why', (_label, x, why) => {
     const r = measure(x, complex, { measurements: all });
-    for (const name of ['Tone level', 'SNR', 'SINAD', 'SFDR', 'ENOB', 'Image rejection', 'Image rejection (measured)', 'I/Q gain imbalance']) {
+    for (const name of ['Tone level', 'SNR', 'SINAD', 'SFDR', 'ENOB', 'Image rejection', 'Image rejection (measured)', 'I/Q gain imbalance (I relative to Q)']) {
       expect(r[name], name).toBeDefined();
       expect(r[name].value, name).toBeNull();
       expect(r[name].reason, name).toMatch(why);
@@ -190,7 +190,7 @@ describe('a tone mixed exactly to 0 Hz', () => {
     expect(r['SFDR'].value).toBeNull();
     expect(r['DC level'].flags).toContain('holds-tone');
     // The blind imbalance estimate assumes I and Q alike, which a tone at 0 Hz is not.
-    expect(r['I/Q gain imbalance'].flags).toContain('assumption-fails');
+    expect(r['I/Q gain imbalance (I relative to Q)'].flags).toContain('assumption-fails');
   });
 });
 
@@ -233,7 +233,7 @@ describe('image rejection', () => {
     const r = measure(x, complex, { measurements: ['image-rejection', 'iq-imbalance'] });
     expect(r['Image rejection (measured)'].value).toBeNull();
     expect(r['Image rejection (measured)'].reason).toMatch(/fs\/2/);
-    expect(r['I/Q gain imbalance'].flags ?? []).toContain('assumption-fails');
+    expect(r['I/Q gain imbalance (I relative to Q)'].flags ?? []).toContain('assumption-fails');
   });
 });
 

@@ -94,12 +94,12 @@ describe('analysis stages', () => {
     expect(value('Tone frequency')).toBeCloseTo(600e3, 0);
     expect(value('DC offset I')).toBeCloseTo(0.015, 4);
     expect(value('DC offset Q')).toBeCloseTo(-0.008, 4);
-    expect(value('I/Q gain imbalance')).toBeCloseTo(0.3, 2);
+    expect(value('I/Q gain imbalance (I relative to Q)')).toBeCloseTo(0.3, 2);
     expect(value('I/Q phase imbalance')).toBeCloseTo(2, 1);
     // The exact IRR of a gain ratio g and phase error phi (Razavi, RF Microelectronics, 2nd ed.,
     // 2012, eq. 4.62): IRR = (1 + 2 g cos(phi) + g^2) / (1 - 2 g cos(phi) + g^2), written out here
     // rather than calling the engine's imageRejectionDb, fed the readout's own imbalance estimates.
-    const g = 10 ** (value('I/Q gain imbalance') / 20);
+    const g = 10 ** (value('I/Q gain imbalance (I relative to Q)') / 20);
     const phi = (value('I/Q phase imbalance') * Math.PI) / 180;
     const irrDb = 10 * Math.log10((1 + 2 * g * Math.cos(phi) + g * g) / (1 - 2 * g * Math.cos(phi) + g * g));
     expect(value('Image rejection')).toBeCloseTo(irrDb, 9);
@@ -141,6 +141,6 @@ describe('analysis stages', () => {
     const result = await runChain(doc, complexFormat, randomBlocks(x, 2, 2, 8000), { registry });
     expect(result.probes.map((p) => p.stageId)).toEqual(['psd', 'img', 'bal']);
     expect(result.samplesOut).toBe(50_000);
-    expect(result.probes[2].readouts!.find((r) => r.name === 'I/Q gain imbalance')!.value).toBeCloseTo(0.3, 2);
+    expect(result.probes[2].readouts!.find((r) => r.name === 'I/Q gain imbalance (I relative to Q)')!.value).toBeCloseTo(0.3, 2);
   });
 });

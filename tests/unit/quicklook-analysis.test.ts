@@ -3,7 +3,7 @@
  * balance estimate in the right layout, and the figures shown agree with the published formulas.
  */
 import { describe, expect, it } from 'vitest';
-import { analyseHead } from '@/components/captures/quicklook-analysis';
+import { analyseHead, clippingWarning } from '@/components/captures/quicklook-analysis';
 
 const fs = 4e6;
 const n = 2 ** 16;
@@ -82,5 +82,33 @@ describe('quick-look analysis of a capture head', () => {
   it('names the field of a bad datatype and refuses a head of fewer than two samples', () => {
     expect(() => analyseHead({ bytes: new ArrayBuffer(16), datatype: 'cf33_le', layout: 'complex', sampleRate: fs })).toThrow(/datatype/);
     expect(() => analyseHead({ bytes: new ArrayBuffer(8), datatype: 'cf32_le', layout: 'complex', sampleRate: fs })).toThrow(/too few/);
+  });
+
+  it('counts samples at or beyond full scale per channel and warns that levels are then unreliable', () => {
+    // Hand-made pattern of 8 I/Q samples, tiled 128 times: |I| >= 1 at 1.2, -1, -2 (3 per tile),
+    // |Q| >= 1 at 1, -1.5 (2 per tile); 0.99 stays below full scale.
+    const pattern = [[1.2, 0], [0.5, 1], [-1, 0], [0.3, 0], [0.99, 0], [-2, 0], [0, -1.5], [0.1, 0]];
+    const tiles = 128;
+    const iq = new Float32Array(2 * pattern.length * tiles);
+    for (let t = 0; t < tiles; t++) pattern.forEach(([i, q], k) => { iq[2 * (t * 8 + k)] = i; iq[2 * (t * 8 + k) + 1] = q; });
+    const result = analyseHead({ bytes: bytesOf(iq), datatype: 'cf32_le', layout: 'complex', sampleRate: fs });
+    expect(result.clipping.clipped).toEqual([3 * tiles, 2 * tiles]);
+    // Crest factor 10 log10(peak^2 / mean |I + jQ|^2): peak^2 = 4 (the -2 sample); per tile the
+    // squared magnitudes sum to 1.44 + 1.25 + 1 + 0.09 + 0.9801 + 4 + 2.25 + 0.01 = 11.0201.
+    expect(result.clipping.crestFactorDb!).toBeCloseTo(10 * Math.log10(4 / (11.0201 / 8)), 4);
+    const warning = clippingWarning(result.clipping, result.sampleType, result.samples)!;
+    expect(warning).toMatch(/I 384 of 1,024, Q 256 of 1,024/);
+    expect(warning).toMatch(/unreliable/);
+
+    // A clean head: no count, no warning.
+    const clean = analyseHead({ bytes: bytesOf(values), datatype: 'cf32_le', layout: 'complex', sampleRate: fs });
+    expect(clean.clipping.clipped).toEqual([0, 0]);
+    expect(clippingWarning(clean.clipping, clean.sampleType, clean.samples)).toBeNull();
+
+    // Real head: one channel; -32768 of an int16 is exactly -1.0 (at full scale), +32767 is below it.
+    const int16 = new Int16Array(256);
+    int16[3] = -32768; int16[10] = 32767; int16[20] = -32768;
+    const real = analyseHead({ bytes: int16.buffer, datatype: 'ri16_le', layout: 'real', sampleRate: fs });
+    expect(real.clipping.clipped).toEqual([2]);
   });
 });

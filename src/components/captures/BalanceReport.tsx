@@ -51,7 +51,7 @@ export function BalanceReport({ balance, layout, samples, sampleRate }: BalanceR
           </Row>
         )}
         {iq && balance.gainImbalanceDb !== null && (
-          <Row label="Gain imbalance (I/Q)" testId="balance-gain">
+          <Row label="Gain imbalance (I relative to Q)" testId="balance-gain">
             <Quantity value={balance.gainImbalanceDb} unit="dB" decimals={2} signed />
           </Row>
         )}

@@ -1,3 +1,4 @@
+import { CENTRE_FREQUENCY_HELP } from './centre-frequency-help';
 import { useEffect, useState } from 'react';
 import { Field, FormMessage } from '../forms/Field';
 import { buttonPrimary, input, label as labelClass } from '../ui';
@@ -6,6 +7,7 @@ import { failureOf } from '@/components/query/fetch';
 import { withQueryClient } from '../table/withQueryClient';
 import { useUpdateCapture } from './queries';
 import type { Capture } from './types';
+
 
 type Editable = Pick<Capture, 'id' | 'name' | 'notes' | 'tags' | 'visibility' | 'centerFrequency' | 'owner' | 'permissions'>;
 type FieldName = 'name' | 'notes' | 'tags' | 'visibility' | 'centerFrequency';
@@ -92,7 +94,7 @@ function CaptureMetadataForm({ capture }: CaptureMetadataFormProps) {
         onChange={set('centerFrequency')}
         error={errors.centerFrequency}
         placeholder="unknown; e.g. 2.412 GHz"
-        hint={centre?.ok ? `= ${formatQuantity(centre.value, 'Hz', { significant: 10 })}: RF frequency of 0 Hz in the capture` : 'RF frequency of 0 Hz in the capture; SI prefixes allowed. Empty = unknown.'}
+        hint={`${centre?.ok ? `= ${formatQuantity(centre.value, 'Hz', { significant: 10 })}: ` : ''}${CENTRE_FREQUENCY_HELP}${centre?.ok ? '.' : '; SI prefixes allowed. Empty = unknown.'}`}
       />
       <div className="grid gap-4 sm:grid-cols-2">
         <div>

@@ -8,7 +8,7 @@ import { AnnotationsPanel, type EditingState } from './AnnotationsPanel';
 import { BalanceReport } from './BalanceReport';
 import { emptyAnnotationValues } from './annotation-form';
 import { selectionFromRelayout, selectionValues } from './annotation-selection';
-import type { QuickLookResult } from './quicklook-analysis';
+import { clippingWarning, type QuickLookResult } from './quicklook-analysis';
 import { spectrogramAxes, spectrogramFigure, spectrumFigure, traceFigure } from './quicklook-figures';
 import { readAnnotations, type Capture } from './types';
 import { useAnnotations } from './useAnnotations';
@@ -55,6 +55,7 @@ function QuickLookView({ capture }: QuickLookProps) {
   // Bumped to wipe a dragged box off the spectrogram once its form is closed.
   const [selectionRevision, setSelectionRevision] = useState(0);
   const result = state.phase === 'done' ? state.result : null;
+  const clipNote = result ? clippingWarning(result.clipping, result.sampleType, result.samples) : null;
   const figures = useMemo(() => {
     if (!result) return null;
     return {
@@ -132,6 +133,12 @@ function QuickLookView({ capture }: QuickLookProps) {
       {state.phase === 'failed' && (
         <p role="alert" className="rounded-md border border-danger/40 bg-danger/10 px-3 py-2 text-sm text-danger">
           The quick look could not be made: {state.message}
+        </p>
+      )}
+
+      {clipNote && (
+        <p role="alert" data-testid="clipping-warning" className="rounded-md border border-danger/40 bg-danger/10 px-3 py-2 text-sm text-danger">
+          {clipNote}
         </p>
       )}
 

@@ -1,3 +1,4 @@
+import { CENTRE_FREQUENCY_HELP } from './centre-frequency-help';
 import { useEffect, useRef, useState } from 'react';
 import { Field, FormMessage } from '../forms/Field';
 import { buttonPrimary, buttonSecondary, input, label as labelClass } from '../ui';
@@ -204,7 +205,7 @@ export default function UploadPanel() {
         )}
         {picked?.kind !== 'sigmf' && (
           <div className="col-span-2">
-            <SiField label="Centre frequency (optional)" unit="Hz" placeholder="e.g. 2.412 GHz" value={values.centerFrequency} onChange={set('centerFrequency')} error={errors.centerFrequency} disabled={busy} />
+            <SiField label="Centre frequency (optional)" unit="Hz" note={CENTRE_FREQUENCY_HELP} placeholder="e.g. 2.412 GHz" value={values.centerFrequency} onChange={set('centerFrequency')} error={errors.centerFrequency} disabled={busy} />
           </div>
         )}
         <div className="col-span-2">
@@ -328,8 +329,9 @@ function Select({ label, error, mono, children, ...props }: { label: string; err
 }
 
 /** A text field taking SI prefixes, showing how the text was read ("= 4 MHz") as its hint. */
-function SiField({ label, unit, aliases, value, error, ...props }: { label: string; unit: string; aliases?: string[]; placeholder: string; value: string; error?: string; onChange: (e: { target: { value: string } }) => void; disabled?: boolean }) {
+function SiField({ label, unit, aliases, note, value, error, ...props }: { label: string; unit: string; aliases?: string[]; note?: string; placeholder: string; value: string; error?: string; onChange: (e: { target: { value: string } }) => void; disabled?: boolean }) {
   const parsed = value.trim() ? parseQuantity(value, unit, { aliases }) : null;
-  const hint = parsed?.ok ? `= ${formatQuantity(parsed.value, unit, { significant: 10 })}` : 'SI prefixes allowed: k, M, G';
+  const read = parsed?.ok ? `= ${formatQuantity(parsed.value, unit, { significant: 10 })}` : 'SI prefixes allowed: k, M, G';
+  const hint = note ? `${read}. ${note}.` : read;
   return <Field label={label} value={value} error={error} hint={hint} className={input + ' font-mono'} {...props} />;
 }

@@ -13,6 +13,7 @@ import { MinMaxTraceReducer, reduceSpectrumMax } from '../../dsp/spectral/trace-
 import { estimateIqImbalance } from '../../dsp/measure/iq-imbalance';
 import { imageRejectionDb } from '../../dsp/measure/image-rejection';
 import { dcLevelDbfs } from '../../dsp/measure/sample-moments';
+import { ClippingCounter } from '../../dsp/measure/clipping';
 import type { SpectrogramResult, SpectrumResult, TraceResult } from '../../dsp/types';
 import type { Capture } from '../../contracts/capture';
 
@@ -35,12 +36,20 @@ export interface BalanceEstimate {
   dcIDbfs: number;
   dcQ: number | null;
   dcQDbfs: number | null;
-  /** 20 log10 of the I/Q amplitude ratio (dB); null for a real capture. */
+  /** 20 log10 of I's amplitude over Q's (dB, Q the reference: + when I is stronger); null for a real capture. */
   gainImbalanceDb: number | null;
   /** Phase error (degrees); null for a real capture. */
   phaseImbalanceDeg: number | null;
   /** Image rejection the gain and phase error imply (dB); Infinity when perfectly balanced. */
   imageRejectionDb: number | null;
+}
+
+/** Overload of the head: samples with |x| >= 1 (full scale) per channel and the crest factor. */
+export interface ClippingEstimate {
+  /** Clipped samples per channel: [I, Q] for complex and two-channel heads, [x] for real. */
+  clipped: number[];
+  /** 20 log10(peak / RMS) in dB (of |I + jQ| for complex); null without signal. */
+  crestFactorDb: number | null;
 }
 
 export interface QuickLookResult {
@@ -57,6 +66,8 @@ export interface QuickLookResult {
   /** Min/max per column; channels [I, Q] for complex and two-channel, [x] for real. */
   trace: TraceResult;
   balance: BalanceEstimate;
+  /** Clipping: any clipped sample makes the levels and the balance estimate unreliable. */
+  clipping: ClippingEstimate;
   /** Time spent decoding and analysing (ms). */
   elapsedMs: number;
 }
@@ -88,6 +99,8 @@ export function analyseHead(input: QuickLookInput): QuickLookResult {
   welch.finish();
   spectrogram.push(values);
   trace.push(values);
+  const clipping = new ClippingCounter(sampleType === 'complex');
+  clipping.push(values);
 
   const fullSpectrum = welch.result();
   const reduced = reduceSpectrumMax(fullSpectrum.frequencies, fullSpectrum.levels, input.spectrumColumns ?? 2048);
@@ -103,6 +116,7 @@ export function analyseHead(input: QuickLookInput): QuickLookResult {
     spectrogramFftSize,
     trace: trace.result(),
     balance: balanceOf(values, sampleType),
+    clipping: { clipped: [...clipping.clipped], crestFactorDb: clipping.crestFactorDb() },
     elapsedMs: performance.now() - started,
   };
 }
@@ -124,4 +138,15 @@ function balanceOf(values: Float32Array, sampleType: 'real' | 'complex'): Balanc
     phaseImbalanceDeg: (estimate.phaseRad * 180) / Math.PI,
     imageRejectionDb: imageRejectionDb(estimate.gainRatio, estimate.phaseRad),
   };
+}
+
+/** The quick look's overload warning in words, or null when no sample reached full scale. */
+export function clippingWarning(clipping: ClippingEstimate, sampleType: 'real' | 'complex', samples: number): string | null {
+  if (!clipping.clipped.some((c) => c > 0)) return null;
+  const names = sampleType === 'real' ? [''] : ['I', 'Q'];
+  const counts = clipping.clipped
+    .map((c, k) => `${names[k] ? `${names[k]} ` : ''}${c.toLocaleString('en')} of ${samples.toLocaleString('en')}`)
+    .join(', ');
+  const crest = clipping.crestFactorDb === null ? '' : ` Crest factor ${clipping.crestFactorDb.toFixed(2)} dB.`;
+  return `Clipping: samples at or beyond full scale (|x| >= 1): ${counts}. Levels, spectrum and balance figures of this head are unreliable.${crest}`;
 }

@@ -16,6 +16,7 @@ export const streamFormatSchema = z.object({
   sampleRate: z.number(),
   sampleType: z.enum(['real', 'complex', 'real-pair']),
   centerFrequency: z.number().optional(),
+  spectrumInverted: z.boolean().optional(),
   bandLimit: z.number().optional(),
 });
 

@@ -18,6 +18,9 @@ import { noiseReadouts } from './measure-noise-readouts';
 import { measureEvm } from '../measure/evm';
 import type { DigitalModulation } from '../synth/constellation';
 
+/** Name of the gain imbalance readout: Q is the reference, so + dB means I is the stronger channel. */
+export const GAIN_IMBALANCE = 'I/Q gain imbalance (I relative to Q)';
+
 /** What the readouts are built from. */
 export interface MeasureInputs {
   measurements: readonly string[];
@@ -232,7 +235,7 @@ export function measureReadouts(inputs: MeasureInputs): Readout[] {
   }
 
   if (wanted.has('iq-imbalance') && complex) {
-    const names: [string, string][] = [['I/Q gain imbalance', 'dB'], ['I/Q phase imbalance', 'deg'], ['Image rejection', 'dB']];
+    const names: [string, string][] = [[GAIN_IMBALANCE, 'dB'], ['I/Q phase imbalance', 'deg'], ['Image rejection', 'dB']];
     group(names, dead, () => {
       const { ii, qq } = moments.centredPowers();
       if (!(ii > 0) || !(qq > 0)) {
@@ -249,7 +252,8 @@ export function measureReadouts(inputs: MeasureInputs): Readout[] {
       }
       const irr = imageRejectionDb(e.gainRatio, e.phaseRad);
       return [
-        readout('I/Q gain imbalance', 20 * Math.log10(e.gainRatio), 'dB', { flags, definition: 'iq-gain-ellingson' }),
+        // Ellingson's g is I's amplitude over Q's: positive when I is the stronger channel.
+        readout(GAIN_IMBALANCE, 20 * Math.log10(e.gainRatio), 'dB', { flags, definition: 'iq-gain-ellingson' }),
         readout('I/Q phase imbalance', (e.phaseRad * 180) / Math.PI, 'deg', { flags, definition: 'iq-phase-ellingson' }),
         readout('Image rejection', irr, 'dB', { flags, definition: 'irr-blind', reason: 'I and Q match exactly in gain and phase: the estimate leaves no image' }),
       ];

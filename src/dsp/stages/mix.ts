@@ -44,8 +44,12 @@ export const mixStage: StageDefinition<MixParams> = {
       });
     }
     const output: StreamFormat = { sampleRate: input.sampleRate, sampleType: 'complex' };
-    // A tone that stood for RF c + g now sits at g + f, so 0 Hz now stands for c - f.
-    if (input.centerFrequency !== undefined) output.centerFrequency = input.centerFrequency - params.frequency;
+    // A tone that stood for RF c + g now sits at g + f, so 0 Hz now stands for c - f; in a mirrored
+    // stream it stood for c - g, so 0 Hz now stands for c + f.
+    if (input.centerFrequency !== undefined) {
+      output.centerFrequency = input.spectrumInverted ? input.centerFrequency + params.frequency : input.centerFrequency - params.frequency;
+    }
+    if (input.spectrumInverted) output.spectrumInverted = true;
     if (input.bandLimit !== undefined) {
       const shifted = input.bandLimit + Math.abs(params.frequency);
       if (shifted < nyquist) output.bandLimit = shifted;

@@ -5,7 +5,7 @@
  * needs I + jQ for the same upright spectrum.
  */
 import { z } from 'zod';
-import type { StageDefinition } from '../types';
+import type { StageDefinition, StreamFormat } from '../types';
 import { BlockBuffer } from './block-buffer';
 
 /** Parameters of quadrature-combine: sign convention and channel swap. */
@@ -27,14 +27,20 @@ export const quadratureCombineStage: StageDefinition<QuadratureCombineParams> = 
   fields: {
     convention: {
       label: 'Sign convention',
-      help: "'i-plus-jq': output I + jQ. 'i-minus-jq': output I - jQ. When Q = x sin(w_LO t), I - jQ gives the upright spectrum (a tone at LO + f at +f) and I + jQ the inverted one; when Q = -x sin(w_LO t), I + jQ is upright.",
+      help: "'i-plus-jq': output I + jQ. 'i-minus-jq': output I - jQ. When Q = x sin(w_LO t), I - jQ gives the upright spectrum (a tone at LO + f at +f) and I + jQ the inverted one; when Q = -x sin(w_LO t), I + jQ is upright. The output metadata marks the spectrum inverted (quadrille:spectrum_inverted) when it is mirrored against the capture read as I + jQ: with I - jQ, or with a swap, but not both.",
     },
     swap: { label: 'Swap channels', help: 'Use channel 1 as I and channel 0 as Q (I and Q cabled the other way round).' },
   },
   accepts: ['real-pair'],
-  propagate(_params, input) {
+  propagate(params, input) {
     // Each channel keeps its band limit; the complex stream then has the same highest |frequency|.
-    const output = { ...input, sampleType: 'complex' as const };
+    const output: StreamFormat = { ...input, sampleType: 'complex' };
+    // The capture's two channels are read as I + jQ (as the quick look reads them and as its
+    // core:frequency is stated); I - jQ mirrors the band against that, and so does a swap
+    // (Q + jI = j conj(I + jQ)); the two together cancel.
+    const inverted = ((params.convention === 'i-minus-jq') !== params.swap) !== (input.spectrumInverted === true);
+    if (inverted) output.spectrumInverted = true;
+    else delete output.spectrumInverted;
     return { output, issues: [] };
   },
   create(params) {

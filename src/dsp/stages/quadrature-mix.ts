@@ -49,7 +49,9 @@ export const quadratureMixStage: StageDefinition<QuadratureMixParams> = {
       });
     }
     const output: StreamFormat = { sampleRate: input.sampleRate, sampleType: 'complex' };
+    // Either convention moves RF c + LO to 0 Hz; I + jQ mirrors the band around it (LO + f lands at -f).
     if (input.centerFrequency !== undefined) output.centerFrequency = input.centerFrequency + params.loFrequency;
+    if ((params.convention === 'i-plus-jq') !== (input.spectrumInverted === true)) output.spectrumInverted = true;
     return { output, issues };
   },
   create(params, input) {
