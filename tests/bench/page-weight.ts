@@ -12,8 +12,9 @@
  * Needs a build (`npm run build`) and Debian's chromium; QUADRILLE_TEST_DIST picks another build folder;
  * QUADRILLE_SHOTS_DIR saves a screenshot of each page. Option: --repeat N.
  */
-import { chromium, type Browser, type BrowserContext, type Page, type Response } from 'playwright-core';
+import { type Browser, type BrowserContext, type Page, type Response } from 'playwright-core';
 import { Client } from '../helpers/client';
+import { launchHeadlessChromium } from '../helpers/chromium';
 import { demoPassword } from '../../src/lib/server/seed';
 import { sleep, startRunsServer } from '../api/runs-server';
 
@@ -81,11 +82,7 @@ function timings(samples: number[]): string {
 }
 
 const server = await startRunsServer();
-const browser = await chromium.launch({
-  executablePath: '/usr/bin/chromium',
-  headless: true,
-  args: ['--no-sandbox', '--disable-gpu', '--disable-dev-shm-usage', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
-});
+const browser = await launchHeadlessChromium();
 try {
   const client = new Client(server.baseUrl);
   await must(client.signIn(engineer, demoPassword), 200);

@@ -8,7 +8,7 @@
  */
 import { demoPassword } from '@/lib/server/seed';
 import { Client } from '../helpers/client';
-import { chromium } from 'playwright-core';
+import { launchHeadlessChromium } from '../helpers/chromium';
 import { sleep, startRunsServer } from '../api/runs-server';
 
 async function must(response: Promise<{ status: number; body: any; text: string }>, status: number): Promise<any> {
@@ -19,12 +19,7 @@ async function must(response: Promise<{ status: number; body: any; text: string 
 
 async function main(): Promise<void> {
   const server = await startRunsServer({ env: { QUADRILLE_RUN_CONCURRENCY: '1' } });
-  // As tests/helpers/browser.ts launches it (that module needs vitest's runner).
-  const browser = await chromium.launch({
-    executablePath: '/usr/bin/chromium',
-    headless: true,
-    args: ['--no-sandbox', '--disable-gpu', '--disable-dev-shm-usage', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
-  });
+  const browser = await launchHeadlessChromium();
   try {
     const client = new Client(server.baseUrl);
     await client.signIn('engineer@saltmarsh.test', demoPassword);

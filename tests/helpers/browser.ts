@@ -6,7 +6,7 @@
 import { existsSync, mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll } from 'vitest';
-import { chromium, type Browser, type BrowserContext, type BrowserContextOptions, type Page } from 'playwright-core';
+import { type Browser, type BrowserContext, type BrowserContextOptions, type Page } from 'playwright-core';
 import { demoPassword } from '@/lib/server/seed';
 import { signedIn } from '../api/runs-helpers';
 import type { Client } from './client';
@@ -14,7 +14,9 @@ import { startServer, type StartOptions, type TestServer } from './server';
 
 export { demoPassword };
 
-export const chromiumPath = '/usr/bin/chromium';
+import { chromiumPath, launchHeadlessChromium } from './chromium';
+
+export { chromiumPath };
 const chromiumPresent = existsSync(chromiumPath);
 const inCi = ['true', '1'].includes((process.env.CI ?? '').toLowerCase());
 /**
@@ -34,11 +36,7 @@ export const shotsDir = process.env.QUADRILLE_SHOTS_DIR;
 /** Launches headless chromium; every launch gets a fresh temporary profile (user-data dir) of its own. */
 export async function launchChromium(): Promise<Browser> {
   if (!chromiumPresent) throw new Error(`${chromiumPath} is absent and CI=true: the browser suites must run in CI. Install it with \`apt-get install -y chromium\`.`);
-  return chromium.launch({
-    executablePath: chromiumPath,
-    headless: true,
-    args: ['--no-sandbox', '--disable-gpu', '--disable-dev-shm-usage', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
-  });
+  return launchHeadlessChromium();
 }
 
 export interface ContextOptions extends BrowserContextOptions {

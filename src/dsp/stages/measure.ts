@@ -72,24 +72,10 @@ export const measureSchema = z
 
 export type MeasureParams = z.infer<typeof measureSchema>;
 
-// The fit-based readouts also need the spectrum: it finds the tone the fit starts from.
-const SPECTRAL: readonly Measurement[] = [
-  'tone',
-  'snr',
-  'sinad',
-  'sfdr',
-  'enob',
-  'thd',
-  'harmonics',
-  'channel-power',
-  'obw',
-  'image-rejection',
-  'iq-imbalance',
-  'noise-floor',
-  'band-snr',
-  'imd',
-  'aclr',
-];
+// Every measurement reads the Welch spectrum but these three, which work on samples alone (the
+// fit-based readouts need it too: it finds the tone the fit starts from).
+const SAMPLES_ONLY: readonly Measurement[] = ['dc', 'clipping', 'evm'];
+const SPECTRAL: readonly Measurement[] = MEASUREMENTS.filter((m) => !SAMPLES_ONLY.includes(m));
 // These keep the last fitSamples samples: the sine fit and the EVM work on samples, not spectra.
 const FITTED: readonly Measurement[] = ['snr', 'sinad', 'enob', 'thd', 'harmonics', 'evm'];
 
