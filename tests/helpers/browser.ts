@@ -48,6 +48,10 @@ export interface ContextOptions extends BrowserContextOptions {
 async function openContext(browser: Browser, baseUrl: string, { session, ...options }: ContextOptions = {}): Promise<BrowserContext> {
   const context = await browser.newContext({ viewport: { width: 1280, height: 900 }, baseURL: baseUrl, ...options });
   if (session) await context.addCookies([...session.cookies].map(([name, value]) => ({ name, value, url: baseUrl })));
+  // A page that never draws (an island that threw, a chunk or request that failed) otherwise only
+  // shows up as a locator timeout: say what the page itself saw.
+  context.on('weberror', (error) => console.error(`[browser] page error: ${error.error().message}`));
+  context.on('requestfailed', (request) => request.failure()?.errorText !== 'net::ERR_ABORTED' && console.error(`[browser] request failed: ${request.method()} ${request.url()} (${request.failure()?.errorText})`));
   return context;
 }
 
