@@ -8,3 +8,4 @@ export * from './chain';
 export * from './errors';
 export * from './run-results';
 export * from './run';
+export * from './spec';
