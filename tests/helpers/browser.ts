@@ -44,13 +44,25 @@ export interface ContextOptions extends BrowserContextOptions {
   session?: Client;
 }
 
+const contextErrors = new WeakMap<BrowserContext, string[]>();
+
+/** The uncaught errors (hydration mismatches included) the context's pages have thrown so far. */
+export function pageErrorsOf(page: Page): string[] {
+  return contextErrors.get(page.context()) ?? [];
+}
+
 /** A new isolated context (own cookies and storage) on `baseUrl`, 1280×900 px unless a viewport is given. */
 async function openContext(browser: Browser, baseUrl: string, { session, ...options }: ContextOptions = {}): Promise<BrowserContext> {
   const context = await browser.newContext({ viewport: { width: 1280, height: 900 }, baseURL: baseUrl, ...options });
   if (session) await context.addCookies([...session.cookies].map(([name, value]) => ({ name, value, url: baseUrl })));
   // A page that never draws (an island that threw, a chunk or request that failed) otherwise only
   // shows up as a locator timeout: say what the page itself saw.
-  context.on('weberror', (error) => console.error(`[browser] page error: ${error.error().message}`));
+  const errors: string[] = [];
+  contextErrors.set(context, errors);
+  context.on('weberror', (error) => {
+    errors.push(error.error().message);
+    console.error(`[browser] page error: ${error.error().message}`);
+  });
   context.on('requestfailed', (request) => request.failure()?.errorText !== 'net::ERR_ABORTED' && console.error(`[browser] request failed: ${request.method()} ${request.url()} (${request.failure()?.errorText})`));
   return context;
 }

@@ -7,15 +7,15 @@ export function utcMinute(iso: string | null): string {
   return iso ? iso.slice(0, 16).replace('T', ' ') : '—';
 }
 
-/** A run's wall time: finished runs their duration, running runs the time so far (s). */
-export function elapsedSeconds(run: Pick<Run, 'status' | 'startedAt' | 'durationMs'>, now: number): number | null {
+/** A run's wall time: finished runs their duration, running runs the time so far (s; none before the clock is known). */
+export function elapsedSeconds(run: Pick<Run, 'status' | 'startedAt' | 'durationMs'>, now: number | null): number | null {
   if (run.durationMs !== null) return run.durationMs / 1000;
-  if (run.status === 'running' && run.startedAt) return Math.max(0, (now - Date.parse(run.startedAt)) / 1000);
+  if (run.status === 'running' && run.startedAt && now !== null) return Math.max(0, (now - Date.parse(run.startedAt)) / 1000);
   return null;
 }
 
 /** Duration text of a run, e.g. "2.31 s" or "1 min 05 s"; a dash before it starts. */
-export function durationText(run: Pick<Run, 'status' | 'startedAt' | 'durationMs'>, now: number): string {
+export function durationText(run: Pick<Run, 'status' | 'startedAt' | 'durationMs'>, now: number | null): string {
   const seconds = elapsedSeconds(run, now);
   return seconds === null ? '—' : formatDuration(seconds < 60 ? Number(seconds.toPrecision(3)) : seconds);
 }

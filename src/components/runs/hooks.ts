@@ -78,9 +78,12 @@ export function usePlotData<K extends PlotKind>(runId: string, probe: string, ki
 }
 
 /** Milliseconds since the epoch, ticking every second while `running` (durations of running runs). */
-export function useClock(running: boolean): number {
-  const [now, setNow] = useState(() => Date.now());
+export function useClock(running: boolean): number | null {
+  // null until mounted: the server's clock and the browser's differ, and a time-so-far rendered
+  // from each would not match when the page hydrates.
+  const [now, setNow] = useState<number | null>(null);
   useEffect(() => {
+    setNow(Date.now());
     if (!running) return;
     const timer = setInterval(() => setNow(Date.now()), 1_000);
     return () => clearInterval(timer);

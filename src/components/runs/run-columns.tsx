@@ -17,8 +17,8 @@ export interface RunRowActions {
   onRetry: (run: Run) => void;
   /** Id of the run whose action is under way, to disable its buttons. */
   busyId: string | null;
-  /** Clock (ms since epoch) for the time so far of running runs. */
-  now: number;
+  /** Clock (ms since epoch) for the time so far of running runs; null until the page is mounted. */
+  now: number | null;
 }
 
 export function runColumns(actions: RunRowActions): ColumnDef<Run, any>[] {
